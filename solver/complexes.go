@@ -1,0 +1,316 @@
+package solver
+
+import "math"
+
+// Complexation at fixed [H+].
+//
+// For a 1:1 complex ML_j of metal i (a strong ion) and state k of system s,
+// [ML_j] = K'_j·[M_i]·α_{s,k}·L_s, where L_s is the free (uncomplexed)
+// total of system s and α its fractions. With u_i = ln[M_i] and
+// v_s = ln L_s the mass balances
+//
+//	c_i = e^{u_i} + Σ_{j∋i} [ML_j]      C_s = e^{v_s} + Σ_{j∋s} [ML_j]
+//
+// are the stationarity conditions of the strictly convex function
+//
+//	Φ(u,v) = Σ_i e^{u_i} + Σ_s e^{v_s} + Σ_j K'_j α_j e^{u_i+v_s} − Σ c_i u_i − Σ C_s v_s,
+//
+// so Newton's method with an Armijo backtracking line search on Φ converges
+// from any start; when a step is refused, an exact minimisation over the
+// metals and then the ligands (the classical alternating scaling) still
+// lowers Φ. The Hessian of Φ is the Jacobian J = ∂(totals)/∂(u,v), which
+// is symmetric positive definite; it is reused for the derivatives of the
+// charge balance (implicit function theorem).
+
+// Convergence control of the complexation solve.
+const (
+	// innerTol is the largest relative mass-balance error accepted; it
+	// keeps the mass balances closed far below the 1e-10 users check.
+	innerTol = 1e-13
+	// maxInnerIter bounds the Newton iterations (each is also a descent
+	// step, so the bound is only reached for pathological data).
+	maxInnerIter = 200
+	// maxBacktrack bounds the step halvings of one line search.
+	maxBacktrack = 40
+	// maxLogStep caps a Newton step in ln-concentration units so that a
+	// trial point cannot overflow exp.
+	maxLogStep = 30
+	// armijo is the sufficient-decrease fraction of the line search.
+	armijo = 1e-4
+	// phiRoundoff is the relative rounding allowance when comparing Φ,
+	// so that a converged iterate is not refused for noise.
+	phiRoundoff = 1e-14
+)
+
+// innerSolver solves the complexation mass balances. Unknowns ("slots")
+// are the ln free concentrations of the metals and ligand systems that
+// take part in at least one active complex.
+type innerSolver struct {
+	p int
+	// metal[r] / sys[r] give the strong-ion or system index of slot r (-1
+	// for the other kind).
+	metal, sys []int
+	total      []float64
+	y          []float64
+	warm       bool
+	// lnA[j] = ln(K'_j α_j), the conditional affinity of complex j.
+	lnA []float64
+	// Work space: totals, gradient, step, trial point, Jacobian and its
+	// Cholesky factor, and the derivative vectors of the charge balance.
+	tot, g, d, yTry, jac, chol []float64
+	dFdy, dTdx, w              []float64
+}
+
+func (in *innerSolver) init(md *model) {
+	for j := range md.complexes {
+		c := &md.complexes[j]
+		if !c.active {
+			continue
+		}
+		if md.strong[c.metal].slot < 0 {
+			md.strong[c.metal].slot = in.p
+			in.metal = append(in.metal, c.metal)
+			in.sys = append(in.sys, -1)
+			in.total = append(in.total, md.strong[c.metal].conc)
+			in.p++
+		}
+		if md.systems[c.sys].slot < 0 {
+			md.systems[c.sys].slot = in.p
+			in.metal = append(in.metal, -1)
+			in.sys = append(in.sys, c.sys)
+			in.total = append(in.total, md.systems[c.sys].total)
+			in.p++
+		}
+	}
+	if in.p == 0 {
+		return
+	}
+	p := in.p
+	buf := make([]float64, 8*p+2*p*p+len(md.complexes))
+	take := func(n int) []float64 { s := buf[:n:n]; buf = buf[n:]; return s }
+	in.y, in.tot, in.g, in.d, in.yTry = take(p), take(p), take(p), take(p), take(p)
+	in.dFdy, in.dTdx, in.w = take(p), take(p), take(p)
+	in.jac, in.chol = take(p*p), take(p*p)
+	in.lnA = take(len(md.complexes))
+}
+
+// slots returns the metal and ligand slots of complex c.
+func slots(md *model, c *complexModel) (int, int) {
+	return md.strong[c.metal].slot, md.systems[c.sys].slot
+}
+
+// phi evaluates Φ at y.
+func (in *innerSolver) phi(md *model, y []float64) float64 {
+	f := 0.0
+	for r, v := range y {
+		f += math.Exp(v) - in.total[r]*v
+	}
+	for j := range md.complexes {
+		c := &md.complexes[j]
+		if c.active {
+			rm, rs := slots(md, c)
+			f += math.Exp(in.lnA[j] + y[rm] + y[rs])
+		}
+	}
+	return f
+}
+
+// totals fills in.tot and the complex concentrations at in.y and returns
+// the largest relative mass-balance error.
+func (in *innerSolver) totals(md *model) float64 {
+	for r, v := range in.y {
+		in.tot[r] = math.Exp(v)
+	}
+	for j := range md.complexes {
+		c := &md.complexes[j]
+		if !c.active {
+			continue
+		}
+		rm, rs := slots(md, c)
+		c.conc = math.Exp(in.lnA[j] + in.y[rm] + in.y[rs])
+		in.tot[rm] += c.conc
+		in.tot[rs] += c.conc
+	}
+	worst := 0.0
+	for r, t := range in.tot {
+		in.g[r] = t - in.total[r]
+		worst = math.Max(worst, math.Abs(in.g[r])/in.total[r])
+	}
+	return worst
+}
+
+// factor builds J at the current complex concentrations and factors it
+// (Cholesky, in.chol); false if rounding made it numerically singular.
+func (in *innerSolver) factor(md *model) bool {
+	p := in.p
+	clear(in.jac)
+	for r := 0; r < p; r++ {
+		in.jac[r*p+r] = in.tot[r]
+	}
+	for j := range md.complexes {
+		c := &md.complexes[j]
+		if c.active {
+			rm, rs := slots(md, c)
+			in.jac[rm*p+rs] += c.conc
+			in.jac[rs*p+rm] += c.conc
+		}
+	}
+	copy(in.chol, in.jac)
+	a := in.chol
+	for k := 0; k < p; k++ {
+		d := a[k*p+k]
+		for m := 0; m < k; m++ {
+			d -= a[k*p+m] * a[k*p+m]
+		}
+		if !(d > 0) {
+			return false
+		}
+		d = math.Sqrt(d)
+		a[k*p+k] = d
+		for i := k + 1; i < p; i++ {
+			s := a[i*p+k]
+			for m := 0; m < k; m++ {
+				s -= a[i*p+m] * a[k*p+m]
+			}
+			a[i*p+k] = s / d
+		}
+	}
+	return true
+}
+
+// cholSolve solves J x = b in place with the factor from factor.
+func (in *innerSolver) cholSolve(b []float64) {
+	p, a := in.p, in.chol
+	for i := 0; i < p; i++ {
+		s := b[i]
+		for m := 0; m < i; m++ {
+			s -= a[i*p+m] * b[m]
+		}
+		b[i] = s / a[i*p+i]
+	}
+	for i := p - 1; i >= 0; i-- {
+		s := b[i]
+		for m := i + 1; m < p; m++ {
+			s -= a[m*p+i] * b[m]
+		}
+		b[i] = s / a[i*p+i]
+	}
+}
+
+// scale performs one exact minimisation of Φ over the metal slots, then
+// over the ligand slots: ln free = ln total − ln(1 + Σ K'α·partner).
+func (in *innerSolver) scale(md *model) {
+	for pass := 0; pass < 2; pass++ {
+		for r := 0; r < in.p; r++ {
+			if (pass == 0) != (in.metal[r] >= 0) {
+				continue
+			}
+			top := 0.0
+			for j := range md.complexes {
+				if q, ok := in.partnerTerm(md, j, r); ok && q > top {
+					top = q
+				}
+			}
+			sum := math.Exp(-top)
+			for j := range md.complexes {
+				if q, ok := in.partnerTerm(md, j, r); ok {
+					sum += math.Exp(q - top)
+				}
+			}
+			in.y[r] = math.Log(in.total[r]) - top - math.Log(sum)
+		}
+	}
+}
+
+// partnerTerm returns ln(K'_j α_j · partner) for complex j if it involves
+// slot r.
+func (in *innerSolver) partnerTerm(md *model, j, r int) (float64, bool) {
+	c := &md.complexes[j]
+	if !c.active {
+		return 0, false
+	}
+	rm, rs := slots(md, c)
+	switch r {
+	case rm:
+		return in.lnA[j] + in.y[rs], true
+	case rs:
+		return in.lnA[j] + in.y[rm], true
+	}
+	return 0, false
+}
+
+// solve finds the free metal and ligand concentrations for the fractions
+// currently held by the systems (evaluated at one [H+]), warm-starting
+// from the previous solution.
+func (in *innerSolver) solve(md *model) error {
+	for j := range md.complexes {
+		c := &md.complexes[j]
+		if c.active {
+			in.lnA[j] = c.lnK + md.systems[c.sys].lnAlpha[c.state]
+		}
+	}
+	if !in.warm {
+		for r := range in.y {
+			in.y[r] = math.Log(in.total[r])
+		}
+		in.scale(md)
+		in.warm = true
+	}
+	res := 0.0
+	for it := 0; it < maxInnerIter; it++ {
+		res = in.totals(md)
+		if res <= innerTol {
+			in.publish(md)
+			return nil
+		}
+		if !in.newtonStep(md) {
+			in.scale(md)
+		}
+	}
+	in.warm = false
+	return &ConvergenceError{Stage: "complexation", Iterations: maxInnerIter, Residual: res}
+}
+
+// newtonStep tries a damped Newton step on Φ; false if none was accepted.
+func (in *innerSolver) newtonStep(md *model) bool {
+	if !in.factor(md) {
+		return false
+	}
+	for r := range in.d {
+		in.d[r] = -in.g[r]
+	}
+	in.cholSolve(in.d)
+	big, slope, scale := 0.0, 0.0, 0.0
+	for r, d := range in.d {
+		big = math.Max(big, math.Abs(d))
+		slope += in.g[r] * d
+		scale += in.tot[r] + in.total[r]*math.Abs(in.y[r])
+	}
+	t := 1.0
+	if big > maxLogStep {
+		t = maxLogStep / big
+	}
+	phi0 := in.phi(md, in.y)
+	for bt := 0; bt < maxBacktrack; bt++ {
+		for r := range in.yTry {
+			in.yTry[r] = in.y[r] + t*in.d[r]
+		}
+		if in.phi(md, in.yTry) <= phi0+armijo*t*slope+phiRoundoff*scale {
+			copy(in.y, in.yTry)
+			return true
+		}
+		t /= 2
+	}
+	return false
+}
+
+// publish copies the solution into the model's free concentrations.
+func (in *innerSolver) publish(md *model) {
+	for r, v := range in.y {
+		if i := in.metal[r]; i >= 0 {
+			md.strong[i].free = math.Exp(v)
+		} else {
+			md.systems[in.sys[r]].free = math.Exp(v)
+		}
+	}
+}
