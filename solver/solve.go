@@ -100,7 +100,34 @@ func (md *model) result(m *Mixture, x, ionic float64, iters int) (*Equilibrium, 
 		eq.Salts[i] = saltState(&m.Salts[i], eq, m.TemperatureC)
 	}
 	eq.Warnings = warnings(m, ionic)
+	if !eq.finite() {
+		return nil, &ConvergenceError{Stage: "result (values overflow: mixture beyond the model's range)", Iterations: iters, Residual: ionic}
+	}
 	return eq, nil
+}
+
+// finite reports whether every number of eq is finite; a last guard so
+// that an overflow in an extreme mixture becomes an error, never a NaN.
+func (eq *Equilibrium) finite() bool {
+	ok := finite(eq.PH) && finite(eq.H) && finite(eq.OH) && finite(eq.GammaH) &&
+		finite(eq.IonicStrength) && finite(eq.BufferCapacity) && finite(eq.Osmolarity)
+	for i := range eq.Systems {
+		s := &eq.Systems[i]
+		for k := range s.Conc {
+			ok = ok && finite(s.Conc[k]) && finite(s.Fractions[k]) && finite(s.Gamma[k])
+		}
+		ok = ok && finite(s.MeanCharge)
+	}
+	for _, s := range eq.Strong {
+		ok = ok && finite(s.Free) && finite(s.Gamma)
+	}
+	for _, s := range eq.Salts {
+		ok = ok && finite(s.SaturationIndex) && finite(s.PKsp)
+	}
+	for _, c := range eq.Complexes {
+		ok = ok && finite(c.Conc) && finite(c.LogK)
+	}
+	return ok
 }
 
 // systemState reports system i at the model's current speciation.

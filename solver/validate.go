@@ -12,6 +12,15 @@ const (
 	maxTempC = 100
 )
 
+// Sanity bounds on amounts and charges. They reject typing errors before
+// they reach exp(): no aqueous solution holds more than about 55 mol/L of
+// anything, and no ion in the catalog carries more than 12 charges
+// (phytate); beyond these the activity model would overflow.
+const (
+	maxConc   = 100
+	maxCharge = 12
+)
+
 func finite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
 
 // badAmount says why a concentration is unusable, or "" if it is fine.
@@ -23,6 +32,8 @@ func badAmount(v float64) string {
 		return "concentration is infinite"
 	case v < 0:
 		return fmt.Sprintf("concentration %g is negative", v)
+	case v > maxConc:
+		return fmt.Sprintf("concentration %g mol/L exceeds %d mol/L", v, maxConc)
 	}
 	return ""
 }
@@ -44,6 +55,9 @@ func validate(m *Mixture) error {
 	for i, s := range m.Strong {
 		if msg := badAmount(s.Conc); msg != "" {
 			return &InputError{"Strong", i, msg}
+		}
+		if s.Charge < -maxCharge || s.Charge > maxCharge {
+			return &InputError{"Strong", i, fmt.Sprintf("charge %d outside ±%d", s.Charge, maxCharge)}
 		}
 	}
 	for i, n := range m.Neutrals {
@@ -69,6 +83,9 @@ func badSystem(s *System) string {
 		return msg
 	}
 	n := len(s.PKa)
+	if s.TopCharge > maxCharge || s.TopCharge-n < -maxCharge {
+		return fmt.Sprintf("state charges %d to %d outside ±%d", s.TopCharge, s.TopCharge-n, maxCharge)
+	}
 	for k, p := range s.PKa {
 		if !finite(p) {
 			return fmt.Sprintf("pKa %d is not a finite number", k+1)
