@@ -34,7 +34,7 @@ type Doc struct {
 	// Path is the file name used in problems.
 	Path string
 	// Root is the top-level node (a mapping for recipes and catalogs).
-	Root *yaml.Node
+	Root   *yaml.Node
 	values map[string]*yaml.Node
 	keys   map[string]*yaml.Node
 }
