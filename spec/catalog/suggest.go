@@ -1,0 +1,78 @@
+package catalog
+
+import (
+	"sort"
+	"strconv"
+	"strings"
+)
+
+// editDistance is the Levenshtein distance between a and b in runes.
+func editDistance(a, b string) int {
+	ra, rb := []rune(a), []rune(b)
+	prev := make([]int, len(rb)+1)
+	cur := make([]int, len(rb)+1)
+	for j := range prev {
+		prev[j] = j
+	}
+	for i := 1; i <= len(ra); i++ {
+		cur[0] = i
+		for j := 1; j <= len(rb); j++ {
+			cost := 1
+			if ra[i-1] == rb[j-1] {
+				cost = 0
+			}
+			cur[j] = min(prev[j]+1, cur[j-1]+1, prev[j-1]+cost)
+		}
+		prev, cur = cur, prev
+	}
+	return prev[len(rb)]
+}
+
+// nearest returns up to n candidates close to s: within an edit distance
+// of a third of its length (at least 2), or containing it / contained in
+// it, nearest first and alphabetically among equals.
+func nearest(s string, candidates []string, n int) []string {
+	if n <= 0 || s == "" {
+		return nil
+	}
+	type scored struct {
+		id string
+		d  int
+	}
+	limit := max(2, len([]rune(s))/3)
+	ls := strings.ToLower(s)
+	var out []scored
+	seen := map[string]bool{}
+	for _, c := range candidates {
+		if seen[c] || c == s {
+			continue
+		}
+		seen[c] = true
+		d := editDistance(ls, strings.ToLower(c))
+		if len(ls) >= 3 && (strings.Contains(c, ls) || strings.Contains(ls, strings.ToLower(c))) {
+			d = min(d, limit)
+		}
+		if d <= limit {
+			out = append(out, scored{c, d})
+		}
+	}
+	sort.Slice(out, func(i, j int) bool {
+		if out[i].d != out[j].d {
+			return out[i].d < out[j].d
+		}
+		return out[i].id < out[j].id
+	})
+	ids := make([]string, 0, n)
+	for i := 0; i < len(out) && i < n; i++ {
+		ids = append(ids, out[i].id)
+	}
+	return ids
+}
+
+// didYouMean formats the nearest candidate as a message suffix.
+func didYouMean(s string, candidates []string) string {
+	if c := nearest(s, candidates, 1); len(c) == 1 {
+		return "; did you mean " + strconv.Quote(c[0]) + "?"
+	}
+	return ""
+}
