@@ -54,10 +54,11 @@ func Sensitivity(m Mixture, eq *Equilibrium, c Component) (float64, error) {
 
 // strongSlope is ∂F/∂(total of strong ion i) at fixed [H+] and γ, at the
 // model's current speciation. For a metal in the complexation problem it
-// is w_r (see complexCorrection); otherwise the added ion splits between
-// its free form and its complexes in the ratio 1 : K'α·[L] (only complexes
-// with an absent partner reach this branch, so the split is first-order
-// exact).
+// is w_r (see complexCorrection). Otherwise the metal is absent or has no
+// partner: an added amount splits between the free ion and its complexes
+// in the ratio 1 : r_j with r_j = K'_j α_j [L_j], and every complex formed
+// takes its ligand out of the partner's free pool, which changes F by the
+// partner's own slope (first order exact).
 func (md *model) strongSlope(i int) float64 {
 	ion := &md.strong[i]
 	if ion.slot >= 0 {
@@ -71,7 +72,11 @@ func (md *model) strongSlope(i int) float64 {
 		}
 		s := &md.systems[c.sys]
 		r := math.Exp(c.lnK + math.Log(s.alpha[c.state]*s.free))
-		num += float64(c.charge) * r
+		partner := float64(s.top) - s.kbar
+		if s.slot >= 0 {
+			partner = md.inner.w[s.slot]
+		}
+		num += r * (float64(c.charge) - partner)
 		den += r
 	}
 	return num / den
@@ -90,8 +95,13 @@ func (md *model) systemSlope(i int) float64 {
 		if c.sys != i {
 			continue
 		}
-		r := math.Exp(c.lnK + math.Log(s.alpha[c.state]*md.strong[c.metal].free))
-		num += float64(c.charge) * r
+		metal := &md.strong[c.metal]
+		r := math.Exp(c.lnK + math.Log(s.alpha[c.state]*metal.free))
+		partner := float64(metal.charge)
+		if metal.slot >= 0 {
+			partner = md.inner.w[metal.slot]
+		}
+		num += r * (float64(c.charge) - partner)
 		den += r
 	}
 	return num / den
