@@ -73,3 +73,28 @@ func roundTripClose(a, b Quantity) bool {
 	}
 	return math.Abs(a.Value-b.Value) <= tol
 }
+
+// FuzzParseRange checks that ParseRange does not panic and returns either
+// two quantities of the requested kind in order or an *Error inside the input.
+func FuzzParseRange(f *testing.F) {
+	for _, s := range []string{"4..25 C", "4 C..298.15 K", "2-8 °C", "-5..-2 C", "10..50 mM", "4...5 C", "..", "1..2..3 C"} {
+		f.Add(s, int(Temperature))
+	}
+	f.Add("10..50 mM", int(MolarConcentration))
+	f.Fuzz(func(t *testing.T, s string, k int) {
+		kind := Kind(k)
+		lo, hi, err := ParseRange(s, kind)
+		if err != nil {
+			var e *Error
+			if !errors.As(err, &e) || e.Input != s || e.Offset < 0 || e.Offset > utf8.RuneCountInString(s) || e.Message == "" {
+				t.Fatalf("ParseRange(%q, %v) bad error %#v", s, kind, err)
+			}
+			return
+		}
+		checkQuantity(t, s, lo)
+		checkQuantity(t, s, hi)
+		if lo.Kind != kind || hi.Kind != kind || lo.Value > hi.Value {
+			t.Fatalf("ParseRange(%q, %v) = %#v, %#v", s, kind, lo, hi)
+		}
+	})
+}

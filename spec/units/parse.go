@@ -128,7 +128,7 @@ func parse(s string, allowed []Kind, implied *unit) (Quantity, error) {
 			return fail(unitProblem(r, unitStart, allowed))
 		}
 		if rest := skipSpace(r, matchEnd); rest < len(r) {
-			return fail(rest, "unexpected text "+strconv.Quote(string(r[rest:]))+" after the unit", "")
+			return fail(rest, "unexpected text "+excerpt(r[rest:])+" after the unit", "")
 		}
 	}
 
@@ -276,7 +276,17 @@ func unitProblem(r []rune, i int, allowed []Kind) (int, string, string) {
 	if sug == "" && strings.HasPrefix(text, "%") {
 		sug = "% w/v or % w/w"
 	}
-	return i, "unknown unit " + strconv.Quote(text), sug
+	return i, "unknown unit " + excerpt(r[i:]), sug
+}
+
+// excerpt quotes r for a message, cut short so that a long line pasted
+// into a field does not flood the report.
+func excerpt(r []rune) string {
+	const most = 40
+	if len(r) > most {
+		return strconv.Quote(string(r[:most-1]) + "…")
+	}
+	return strconv.Quote(string(r))
 }
 
 func contains(kinds []Kind, k Kind) bool {

@@ -186,6 +186,7 @@ func TestParseErrors(t *testing.T) {
 		{"offset counts runes", "5 µgx", 2, `unknown unit "µgx"`, "µg"},
 		{"no suggestion", "5 furlongs", 2, `unknown unit "furlongs"`, ""},
 		{"one-letter no suggestion", "5 u", 2, `unknown unit "u"`, ""},
+		{"long unknown unit is cut short", "5 " + strings.Repeat("x", 100), 2, `unknown unit "` + strings.Repeat("x", 39) + `…"`, ""},
 		{"bare percent", "30 %", 3, "ambiguous", "% w/v or % w/w"},
 		{"percent no space", "30%", 2, "ambiguous", "% w/v or % w/w"},
 		{"percent typo", "30 % w/x", 3, "unknown unit", "% w/v"},

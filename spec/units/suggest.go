@@ -34,6 +34,9 @@ func suggest(text string, allowed []Kind) string {
 			continue
 		}
 		cand := []rune(normalize(sp.text))
+		if abs(len(cand)-len(in)) > limit {
+			continue // the distance is at least the difference in length
+		}
 		d := distance(folded, []rune(strings.ToLower(string(cand))))
 		if d > limit || (d > 0 && d >= max(len(in), len(cand))) {
 			continue
@@ -87,4 +90,11 @@ func distance(a, b []rune) int {
 		prev2, prev, cur = prev, cur, prev2
 	}
 	return prev[len(b)]
+}
+
+func abs(n int) int {
+	if n < 0 {
+		return -n
+	}
+	return n
 }
