@@ -1,0 +1,131 @@
+package report
+
+import (
+	"fmt"
+	"io"
+	"strings"
+
+	"github.com/fatih/color"
+	"github.com/phgate/phgate/rules"
+)
+
+// Text writes a report for people: one block per recipe file with the
+// key results and its findings, problems after, and a one-line tally.
+// Colour is used only when Color is set (the caller decides from the
+// terminal and NO_COLOR).
+type Text struct {
+	Color bool
+}
+
+func (t *Text) paint(attrs ...color.Attribute) func(a ...any) string {
+	c := color.New(attrs...)
+	if t.Color {
+		c.EnableColor()
+	} else {
+		c.DisableColor()
+	}
+	return c.SprintFunc()
+}
+
+// Write implements Formatter.
+func (t *Text) Write(w io.Writer, rep *Report) error {
+	bold := t.paint(color.Bold)
+	dim := t.paint(color.Faint)
+	sevPaint := map[rules.Severity]func(a ...any) string{
+		rules.Error:   t.paint(color.FgHiRed, color.Bold),
+		rules.Warning: t.paint(color.FgYellow),
+		rules.Info:    t.paint(color.FgCyan),
+	}
+	var b strings.Builder
+	for _, r := range rep.Recipes {
+		fmt.Fprintf(&b, "%s  %s\n", bold(r.Path), dim(r.Recipe))
+		fmt.Fprintf(&b, "    %s\n", Headline(r))
+		for _, a := range r.Adjustments {
+			fmt.Fprintf(&b, "    q.s. %s to pH %g: %s\n", a.Use, a.TargetPH, AdjustAmount(a, r.ConcentrationUnit))
+		}
+		width := 0
+		for _, f := range r.Findings {
+			width = max(width, len(fmt.Sprintf("%d:%d", f.Line, f.Column)))
+		}
+		for _, f := range r.Findings {
+			pos := fmt.Sprintf("%d:%d", f.Line, f.Column)
+			sev := f.Severity.String()
+			if f.Waived != "" {
+				fmt.Fprintf(&b, "    %-*s  %-7s  %s  %s %s\n", width, pos, "waived", f.Rule, f.Message, dim("("+f.Waived+")"))
+				continue
+			}
+			fmt.Fprintf(&b, "    %-*s  %s  %s  %s\n", width, pos, sevPaint[f.Severity](fmt.Sprintf("%-7s", sev)), bold(f.Rule), f.Message)
+			if f.Fix != "" {
+				fmt.Fprintf(&b, "    %-*s           %s\n", width, "", dim("→ "+f.Fix))
+			}
+		}
+		b.WriteString("\n")
+	}
+	if len(rep.Problems) > 0 {
+		fmt.Fprintf(&b, "%s\n", bold("could not check:"))
+		for _, p := range rep.Problems {
+			fmt.Fprintf(&b, "    %s\n", p.Error())
+		}
+		b.WriteString("\n")
+	}
+	s := rep.Summary
+	parts := []string{plural(s.Recipes, "recipe"), plural(s.Errors, "error"), plural(s.Warnings, "warning")}
+	if s.Infos > 0 {
+		parts = append(parts, plural(s.Infos, "note"))
+	}
+	if s.Waived > 0 {
+		parts = append(parts, fmt.Sprintf("%d waived", s.Waived))
+	}
+	parts = append(parts, plural(s.Problems, "unreadable file"))
+	if s.Skipped > 0 {
+		parts = append(parts, fmt.Sprintf("%d other YAML skipped", s.Skipped))
+	}
+	verdict := t.paint(color.FgGreen, color.Bold)("pass")
+	if s.Errors > 0 || s.Problems > 0 {
+		verdict = sevPaint[rules.Error]("fail")
+	}
+	fmt.Fprintf(&b, "%s  %s\n", verdict, strings.Join(parts, " · "))
+	_, err := io.WriteString(w, b.String())
+	return err
+}
+
+// Headline is the one-line summary of a recipe's chemistry.
+func Headline(r Recipe) string {
+	window := ""
+	if w := r.PHWindow; w != nil {
+		lo, hi := "…", "…"
+		if w.Min != nil {
+			lo = fmt.Sprintf("%.2f", *w.Min)
+		}
+		if w.Max != nil {
+			hi = fmt.Sprintf("%.2f", *w.Max)
+		}
+		window = fmt.Sprintf(" (target %s–%s)", lo, hi)
+	}
+	return fmt.Sprintf("pH %.2f%s at %g °C · ionic strength %.3g %s · buffer capacity %.3g m%s per pH · %.0f mOsm/L",
+		r.PH, window, r.TemperatureC, r.IonicStrength, r.ConcentrationUnit, r.BufferCapacity*1000, r.ConcentrationUnit, r.Osmolarity)
+}
+
+// AdjustAmount renders a q.s. amount in the units a formulator weighs.
+func AdjustAmount(a Adjust, concUnit string) string {
+	parts := []string{}
+	if a.Mol != 0 {
+		parts = append(parts, fmt.Sprintf("%.4g mmol", a.Mol*1000))
+		if a.Grams != 0 {
+			parts = append(parts, fmt.Sprintf("%.4g g", a.Grams))
+		}
+		if a.Millilitres != 0 {
+			parts = append(parts, fmt.Sprintf("%.4g mL of stock", a.Millilitres))
+		}
+	} else {
+		parts = append(parts, fmt.Sprintf("%.4g m%s", a.Conc*1000, concUnit))
+	}
+	return strings.Join(parts, " = ")
+}
+
+func plural(n int, word string) string {
+	if n == 1 {
+		return fmt.Sprintf("1 %s", word)
+	}
+	return fmt.Sprintf("%d %ss", n, word)
+}

@@ -1,0 +1,385 @@
+// Package project finds recipe files, groups them by the phgate.yaml that
+// governs them, builds each project's catalog (built-in plus the config's
+// catalog files), indexes recipes by id (duplicates are problems), and
+// evaluates recipes with their stock recipes (`from:`), memoised and with
+// cycle detection.
+package project
+
+import (
+	"fmt"
+	"io/fs"
+	"os"
+	"path/filepath"
+	"sort"
+	"strings"
+	"sync"
+
+	"github.com/phgate/phgate/spec"
+	"github.com/phgate/phgate/spec/catalog"
+	"github.com/phgate/phgate/spec/diag"
+	"github.com/phgate/phgate/spec/evaluate"
+	"github.com/phgate/phgate/spec/yamldoc"
+)
+
+// File is one YAML file considered by a run.
+type File struct {
+	Path string
+	// Recipe is the loaded recipe (nil when the file had problems or is
+	// not a recipe).
+	Recipe *spec.Recipe
+	// Problems found while reading, parsing or validating it.
+	Problems diag.Problems
+	// Skipped marks valid YAML that is not a recipe, met in a folder walk.
+	Skipped bool
+	// Target marks files the user asked about (named or found under a
+	// named folder), as opposed to files read only to resolve stocks.
+	Target  bool
+	project *Project
+}
+
+// Project is the set of recipes governed by one phgate.yaml (or, without
+// one, by the folder the user named).
+type Project struct {
+	Root    string
+	Config  *Config
+	Catalog *catalog.Catalog
+	// Problems in the config or its catalog files.
+	Problems diag.Problems
+	byID     map[string]*File
+	mu       sync.Mutex
+	results  map[string]*outcome
+}
+
+type outcome struct {
+	once     sync.Once
+	res      *evaluate.Result
+	problems diag.Problems
+}
+
+// Run is everything found for one invocation.
+type Run struct {
+	// Files are the target files in a deterministic order (by path).
+	Files    []*File
+	Projects []*Project
+	// Skipped counts YAML files in folder walks that are not recipes.
+	Skipped int
+}
+
+// Discover finds and loads the recipes under the given paths. A path that
+// names a file must be a recipe; folders are walked recursively.
+func Discover(paths []string) *Run {
+	if len(paths) == 0 {
+		paths = []string{"."}
+	}
+	d := &discovery{projects: map[string]*Project{}, files: map[string]*File{}}
+	for _, p := range paths {
+		d.target(filepath.Clean(p))
+	}
+	run := &Run{Skipped: d.skipped}
+	for _, f := range d.files {
+		if f.Target {
+			run.Files = append(run.Files, f)
+		}
+	}
+	sort.Slice(run.Files, func(i, j int) bool { return run.Files[i].Path < run.Files[j].Path })
+	for _, p := range d.projects {
+		run.Projects = append(run.Projects, p)
+	}
+	sort.Slice(run.Projects, func(i, j int) bool { return run.Projects[i].Root < run.Projects[j].Root })
+	return run
+}
+
+type discovery struct {
+	projects map[string]*Project
+	files    map[string]*File
+	skipped  int
+}
+
+func (d *discovery) target(p string) {
+	st, err := os.Stat(p)
+	if err != nil {
+		d.files[mustAbs(p)] = &File{Path: p, Target: true, Problems: diag.Problems{{Path: p, Message: "cannot read: " + unwrapPathErr(err).Error()}}}
+		return
+	}
+	if !st.IsDir() {
+		f := d.load(p, true, d.projectFor(filepath.Dir(p)))
+		f.Target = true
+		if f.Skipped {
+			f.Skipped = false
+			f.Problems = append(f.Problems, diag.Problem{Path: p, Message: "not a recipe (no top-level recipe: key)"})
+		}
+		return
+	}
+	proj := d.projectFor(p)
+	for _, f := range d.walk(p, proj) {
+		f.Target = true
+	}
+}
+
+// projectFor returns the project governing folder dir, loading its config,
+// catalogs and the full recipe index on first use.
+func (d *discovery) projectFor(dir string) *Project {
+	cfgPath := FindConfig(dir)
+	root := dir
+	if cfgPath != "" {
+		root = filepath.Dir(cfgPath)
+	}
+	key := root
+	if abs, err := filepath.Abs(root); err == nil {
+		key = abs
+	}
+	if p, ok := d.projects[key]; ok {
+		return p
+	}
+	p := &Project{Root: root, byID: map[string]*File{}, results: map[string]*outcome{}}
+	d.projects[key] = p
+	p.Config = &Config{Dir: root}
+	if cfgPath != "" {
+		c, ps := LoadConfig(cfgPath)
+		p.Problems = append(p.Problems, ps...)
+		if c != nil {
+			p.Config = c
+		}
+	}
+	p.Catalog = catalog.Default()
+	for _, c := range p.Config.Catalogs {
+		cp := filepath.Join(p.Config.Dir, filepath.FromSlash(c.Value))
+		if _, err := os.Stat(cp); err != nil {
+			p.Problems = append(p.Problems, diag.Problem{Path: p.Config.Path, Line: c.Pos.Line, Column: c.Pos.Column, Message: fmt.Sprintf("catalog %s: %v", c.Value, unwrapPathErr(err))})
+			continue
+		}
+		extra, ps := ReadCatalog(cp)
+		if len(ps) > 0 {
+			p.Problems = append(p.Problems, ps...)
+			continue
+		}
+		merged, err := p.Catalog.Merge(extra)
+		if err != nil {
+			p.Problems = append(p.Problems, diag.Problem{Path: cp, Message: err.Error()})
+			continue
+		}
+		p.Catalog = merged
+	}
+	// Index every recipe of the project so stocks resolve even when the
+	// user names a single file.
+	d.walk(root, p)
+	return p
+}
+
+// walk loads every YAML file under dir that the project's include and
+// exclude globs let through.
+func (d *discovery) walk(dir string, p *Project) []*File {
+	var out []*File
+	skip := map[string]bool{}
+	if p.Config.Path != "" {
+		skip[mustAbs(p.Config.Path)] = true
+		for _, c := range p.Config.Catalogs {
+			skip[mustAbs(filepath.Join(p.Config.Dir, filepath.FromSlash(c.Value)))] = true
+		}
+	}
+	_ = filepath.WalkDir(dir, func(path string, e fs.DirEntry, err error) error {
+		if err != nil {
+			if path == dir {
+				return nil
+			}
+			f := &File{Path: path, project: p, Problems: diag.Problems{{Path: path, Message: "cannot read: " + unwrapPathErr(err).Error()}}}
+			d.files[mustAbs(path)] = f
+			out = append(out, f)
+			return nil
+		}
+		rel := relSlash(p.Config.Dir, path)
+		if e.IsDir() {
+			if path != dir && (strings.HasPrefix(e.Name(), ".") || p.excluded(rel)) {
+				return filepath.SkipDir
+			}
+			return nil
+		}
+		ext := strings.ToLower(filepath.Ext(path))
+		if ext != ".yaml" && ext != ".yml" {
+			return nil
+		}
+		if e.Name() == ConfigName || skip[mustAbs(path)] || p.excluded(rel) || !p.included(rel) {
+			return nil
+		}
+		f := d.load(path, false, p)
+		if f.Skipped {
+			return nil
+		}
+		out = append(out, f)
+		return nil
+	})
+	return out
+}
+
+func relSlash(base, path string) string {
+	rel, err := filepath.Rel(base, path)
+	if err != nil {
+		return filepath.ToSlash(path)
+	}
+	return filepath.ToSlash(rel)
+}
+
+func (p *Project) excluded(rel string) bool {
+	for _, g := range p.Config.Exclude {
+		if matchGlob(g, rel) {
+			return true
+		}
+	}
+	return false
+}
+
+func (p *Project) included(rel string) bool {
+	if len(p.Config.Include) == 0 {
+		return true
+	}
+	for _, g := range p.Config.Include {
+		if matchGlob(g, rel) {
+			return true
+		}
+	}
+	return false
+}
+
+// load reads one file once (later calls return the same File).
+func (d *discovery) load(path string, named bool, p *Project) *File {
+	key := mustAbs(path)
+	if f, ok := d.files[key]; ok {
+		return f
+	}
+	f := &File{Path: path, project: p}
+	d.files[key] = f
+	data, err := readLimited(path)
+	if err != nil {
+		f.Problems = diag.Problems{{Path: path, Message: err.Error()}}
+		return f
+	}
+	doc, ps := yamldoc.Parse(data, path)
+	if ps != nil {
+		f.Problems = ps
+		return f
+	}
+	if !spec.IsRecipe(doc) {
+		f.Skipped = true
+		if !named {
+			d.skipped++
+		}
+		return f
+	}
+	r, ps := spec.FromDoc(doc)
+	if ps != nil {
+		f.Problems = ps
+		return f
+	}
+	f.Recipe = r
+	if other, dup := p.byID[r.ID.Value]; dup && other != f {
+		f.Problems = append(f.Problems, diag.Problem{Path: path, Line: r.ID.Pos.Line, Column: r.ID.Pos.Column,
+			Message: fmt.Sprintf("recipe id %q is already used by %s", r.ID.Value, other.Path)})
+		f.Recipe = nil
+		return f
+	}
+	p.byID[r.ID.Value] = f
+	return f
+}
+
+// Project returns the project a file belongs to.
+func (f *File) Project() *Project { return f.project }
+
+// Evaluate solves a file's recipe with its stocks. It is safe for
+// concurrent use; each recipe is solved once.
+func (f *File) Evaluate() (*evaluate.Result, diag.Problems) {
+	if f.Recipe == nil {
+		return nil, f.Problems
+	}
+	return f.project.evaluate(f, nil)
+}
+
+func (p *Project) evaluate(f *File, chain []string) (*evaluate.Result, diag.Problems) {
+	id := f.Recipe.ID.Value
+	for i, c := range chain {
+		if c == id {
+			cycle := append(append([]string{}, chain[i:]...), id)
+			return nil, diag.Problems{{Path: f.Path, Line: f.Recipe.ID.Pos.Line, Column: f.Recipe.ID.Pos.Column,
+				Message: "stock recipes form a cycle: " + strings.Join(cycle, " → ")}}
+		}
+	}
+	chain = append(chain, id)
+	if len(chain) > 1 {
+		// Inside a stock chain: no memo, so the cycle check sees the chain.
+		return p.evaluateNow(f, chain)
+	}
+	p.mu.Lock()
+	o, ok := p.results[id]
+	if !ok {
+		o = &outcome{}
+		p.results[id] = o
+	}
+	p.mu.Unlock()
+	o.once.Do(func() { o.res, o.problems = p.evaluateNow(f, chain) })
+	return o.res, o.problems
+}
+
+func (p *Project) evaluateNow(f *File, chain []string) (*evaluate.Result, diag.Problems) {
+	r := f.Recipe
+	cat := p.Catalog
+	if r.Catalog != nil {
+		inline, ps := catalog.FromNode(r.Catalog, f.Path)
+		if len(ps) > 0 {
+			return nil, ps
+		}
+		merged, err := cat.Merge(inline)
+		if err != nil {
+			return nil, diag.Problems{{Path: f.Path, Line: r.Catalog.Line, Column: r.Catalog.Column, Message: err.Error()}}
+		}
+		cat = merged
+	}
+	lookup := func(stockID string, at spec.Pos) (*evaluate.Result, *diag.Problem) {
+		sf, ok := p.byID[stockID]
+		if !ok {
+			msg := fmt.Sprintf("no recipe with id %q in this project", stockID)
+			if s := yamldoc.Nearest(stockID, p.IDs()); s != "" {
+				msg += fmt.Sprintf("; did you mean %q?", s)
+			}
+			return nil, &diag.Problem{Path: f.Path, Line: at.Line, Column: at.Column, Message: msg}
+		}
+		res, ps := p.evaluate(sf, chain)
+		if len(ps) > 0 {
+			msg := fmt.Sprintf("stock recipe %q cannot be used: %s", stockID, ps[0].Error())
+			if strings.Contains(ps[0].Message, "cycle") {
+				msg = ps[0].Message
+			}
+			return nil, &diag.Problem{Path: f.Path, Line: at.Line, Column: at.Column, Message: msg}
+		}
+		return res, nil
+	}
+	return evaluate.Evaluate(r, cat, lookup)
+}
+
+// IDs returns the project's recipe ids, sorted.
+func (p *Project) IDs() []string {
+	ids := make([]string, 0, len(p.byID))
+	for id := range p.byID {
+		ids = append(ids, id)
+	}
+	sort.Strings(ids)
+	return ids
+}
+
+// Stocks returns the ids of the recipes r uses through from:, directly.
+func Stocks(r *spec.Recipe) []string {
+	var out []string
+	for _, in := range r.Ingredients {
+		if in.From.Value != "" {
+			out = append(out, in.From.Value)
+		}
+	}
+	return out
+}
+
+// ReadCatalog reads and parses a project catalog file.
+func ReadCatalog(path string) (*catalog.Catalog, diag.Problems) {
+	data, err := readLimited(path)
+	if err != nil {
+		return nil, diag.Problems{{Path: path, Message: err.Error()}}
+	}
+	return catalog.Parse(data, path)
+}
