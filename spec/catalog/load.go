@@ -694,7 +694,7 @@ func (b *builder) checkIngredient(d *document, k, v *yaml.Node, ing *Ingredient)
 	ing.PI = opt("pi", "isoelectric point", 0, 14, false)
 	ing.Preservative = opt("preservative", "minimum un-ionized fraction", 0, 1, true)
 	ing.Sources = srcs
-	if len(srcs) == 0 {
+	if len(srcs) == 0 && len(items(field(v, "sources"))) == 0 {
 		b.problem(d.pos(k), fmt.Sprintf("ingredient %q has no source", ing.ID))
 	}
 }
