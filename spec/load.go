@@ -28,6 +28,8 @@ const (
 	// DefaultDensity is the finished product's density in g/mL when the
 	// recipe declares none (dilute aqueous solution).
 	DefaultDensity = 1.0
+	// MaxIngredients bounds the ingredient list; real recipes have tens.
+	MaxIngredients = 500
 )
 
 var (
@@ -263,6 +265,10 @@ func (l *loader) window(ptr, what string) *Window {
 func (l *loader) ingredients() {
 	n := l.doc.Node("/ingredients")
 	if n == nil {
+		return
+	}
+	if len(n.Content) > MaxIngredients {
+		l.addAt("/ingredients", fmt.Sprintf("%d ingredients is more than the limit of %d", len(n.Content), MaxIngredients))
 		return
 	}
 	titrants := 0

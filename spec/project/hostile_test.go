@@ -1,0 +1,122 @@
+package project
+
+import (
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+func write(t *testing.T, dir, name string, data []byte) string {
+	t.Helper()
+	p := filepath.Join(dir, name)
+	if err := os.MkdirAll(filepath.Dir(p), 0o755); err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile(p, data, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	return p
+}
+
+const goodRecipe = "recipe: %s\nbasis: 1 L\ningredients:\n  - use: sodium-chloride\n    amount: 1 g\n"
+
+func TestHostileFiles(t *testing.T) {
+	laughs := "recipe: lol\na0: &a0 [x, x, x, x, x, x, x, x, x, x]\n"
+	for i := 1; i < 9; i++ {
+		laughs += "a" + string(rune('0'+i)) + ": &a" + string(rune('0'+i)) + " [" + strings.Repeat("*a"+string(rune('0'+i-1))+", ", 9) + "*a" + string(rune('0'+i-1)) + "]\n"
+	}
+	cases := []struct {
+		name, file string
+		data       []byte
+		want       string
+	}{
+		{"binary", "bin.yaml", []byte("recipe: a\x00\x01"), "binary"},
+		{"not UTF-8", "latin1.yaml", []byte("recipe: caf\xe9\n"), "not valid UTF-8"},
+		{"empty", "empty.yaml", nil, "file is empty"},
+		{"only comments", "comments.yaml", []byte("# nothing yet\n"), "file is empty"},
+		{"alias bomb", "laughs.yaml", []byte(laughs), "too heavily aliased"},
+		{"deep nesting", "deep.yaml", []byte("recipe: a\nx: " + strings.Repeat("[", 200) + strings.Repeat("]", 200) + "\n"), "nesting deeper than"},
+		{"too large", "big.yaml", []byte("recipe: a\n" + strings.Repeat("# padding line\n", 80000)), "larger than the"},
+		{"two documents", "two.yaml", []byte("recipe: a\ningredients: []\n---\nrecipe: b\n"), "more than one YAML document"},
+		{"BOM and CRLF keep positions", "crlf.yaml", []byte("\xef\xbb\xbfrecipe: a\r\nbasis: 1 L\r\ningredients:\r\n  - use: tris\r\n    amount: 5 gs\r\n"), "crlf.yaml:5:15: unknown unit"},
+	}
+	for _, tc := range cases {
+		t.Run(tc.name, func(t *testing.T) {
+			dir := t.TempDir()
+			p := write(t, dir, tc.file, tc.data)
+			run := Discover([]string{p})
+			if len(run.Files) != 1 {
+				t.Fatalf("files = %d", len(run.Files))
+			}
+			_, ps := run.Files[0].Evaluate()
+			if len(ps) == 0 || !strings.Contains(ps.Error(), tc.want) {
+				t.Fatalf("problems %q do not mention %q", ps.Error(), tc.want)
+			}
+		})
+	}
+}
+
+func TestFolderWalk(t *testing.T) {
+	dir := t.TempDir()
+	write(t, dir, "a.yaml", []byte(strings.ReplaceAll(goodRecipe, "%s", "alpha")))
+	write(t, dir, "sub/b.yml", []byte(strings.ReplaceAll(goodRecipe, "%s", "beta")))
+	write(t, dir, "sub/dup.yaml", []byte(strings.ReplaceAll(goodRecipe, "%s", "alpha")))
+	write(t, dir, "notes.yaml", []byte("owner: QC lab\n"))
+	write(t, dir, "readme.txt", []byte("not yaml"))
+	write(t, dir, "broken.yaml", []byte("recipe: [\n"))
+	if err := os.Symlink(dir, filepath.Join(dir, "sub", "loop")); err != nil {
+		t.Fatal(err)
+	}
+	if err := os.Symlink(filepath.Join(dir, "missing.yaml"), filepath.Join(dir, "dangling.yaml")); err != nil {
+		t.Fatal(err)
+	}
+	run := Discover([]string{dir})
+	if run.Skipped != 1 {
+		t.Errorf("skipped = %d, want 1 (notes.yaml)", run.Skipped)
+	}
+	var solved []string
+	var problems []string
+	for _, f := range run.Files {
+		res, ps := f.Evaluate()
+		if res != nil {
+			solved = append(solved, res.Recipe.ID.Value)
+		}
+		for _, p := range ps {
+			problems = append(problems, p.Error())
+		}
+	}
+	if strings.Join(solved, ",") != "alpha,beta" {
+		t.Errorf("solved %v, want alpha and beta", solved)
+	}
+	all := strings.Join(problems, "\n")
+	for _, want := range []string{"broken.yaml:", `recipe id "alpha" is already used by`, "dangling.yaml"} {
+		if !strings.Contains(all, want) {
+			t.Errorf("problems\n%s\ndo not mention %q", all, want)
+		}
+	}
+}
+
+func TestEmptyFolderAndMissingPath(t *testing.T) {
+	run := Discover([]string{t.TempDir()})
+	if len(run.Files) != 0 {
+		t.Errorf("files in an empty folder: %d", len(run.Files))
+	}
+	run = Discover([]string{filepath.Join(t.TempDir(), "nope.yaml")})
+	if len(run.Files) != 1 || len(run.Files[0].Problems) == 0 {
+		t.Fatalf("missing path not reported")
+	}
+}
+
+func TestStockCycle(t *testing.T) {
+	dir := t.TempDir()
+	write(t, dir, "a.yaml", []byte("recipe: a\nbasis: 1 L\ningredients:\n  - from: b\n    amount: 10 mL\n"))
+	write(t, dir, "b.yaml", []byte("recipe: b\nbasis: 1 L\ningredients:\n  - from: a\n    amount: 10 mL\n"))
+	run := Discover([]string{dir})
+	for _, f := range run.Files {
+		_, ps := f.Evaluate()
+		if !strings.Contains(ps.Error(), "cycle") {
+			t.Errorf("%s: problems %q do not name the cycle", f.Path, ps.Error())
+		}
+	}
+}
