@@ -156,6 +156,9 @@ func (c *Catalog) Salt(id string) (*Salt, bool) {
 // error naming it: a project catalog may add entries but never silently
 // override built-in ones.
 func (c *Catalog) Merge(other *Catalog) (*Catalog, error) {
+	if other == nil {
+		other = newCatalog()
+	}
 	out := newCatalog()
 	var dup []string
 	for k, v := range c.positions {

@@ -15,8 +15,10 @@ type Source struct {
 
 // Value is a number with its source.
 type Value struct {
-	V      float64 `json:"value"`
-	Source Source  `json:"source"`
+	// V is the number in the unit its field documents.
+	V float64 `json:"value"`
+	// Source says where V comes from.
+	Source Source `json:"source"`
 }
 
 // Step is one ionization step of an acid–base system.
