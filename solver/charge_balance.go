@@ -73,6 +73,7 @@ func (md *model) evalCharge(x float64) (f, df float64, err error) {
 	if md.inner.p > 0 {
 		df -= md.complexCorrection()
 	}
+	md.df = df
 	return f, df, nil
 }
 

@@ -54,3 +54,18 @@ func (e *UnreachableError) Error() string {
 	return fmt.Sprintf("solver: %s cannot bring the mixture to pH %.3f: reachable range is pH %.3f to %.3f (0 to %g mol/L)",
 		e.Component, e.Target, e.MinPH, e.MaxPH, MaxTitrant)
 }
+
+// RangeError reports a mixture outside what the model can represent, for
+// example an ionic strength at which the activity coefficients overflow.
+// The input is valid item by item; the combination is not.
+type RangeError struct {
+	// Quantity names what is out of range ("ionic strength", "result").
+	Quantity string
+	// Value is its value and Limit the bound it crossed.
+	Value, Limit float64
+}
+
+// Error implements error.
+func (e *RangeError) Error() string {
+	return fmt.Sprintf("solver: %s %.4g beyond the model's range (limit %g)", e.Quantity, e.Value, e.Limit)
+}

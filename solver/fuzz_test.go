@@ -31,7 +31,8 @@ func FuzzSolve(f *testing.F) {
 		if err != nil {
 			var ie *InputError
 			var ce *ConvergenceError
-			if !errors.As(err, &ie) && !errors.As(err, &ce) {
+			var re *RangeError
+			if !errors.As(err, &ie) && !errors.As(err, &ce) && !errors.As(err, &re) {
 				t.Fatalf("untyped error %v", err)
 			}
 			return

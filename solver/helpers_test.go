@@ -57,7 +57,9 @@ func carbonate(total float64) System {
 	return System{Name: "carbonate", Total: total, PKa: []float64{6.351, 10.329}, DeltaH: []float64{9150, 14700}, DeltaCp: []float64{-371, -249}}
 }
 
-func ion(name string, conc float64, z int) StrongIon { return StrongIon{Name: name, Conc: conc, Charge: z} }
+func ion(name string, conc float64, z int) StrongIon {
+	return StrongIon{Name: name, Conc: conc, Charge: z}
+}
 
 // chargeResidual recomputes the charge balance from eq and returns it
 // with the sum of |z|·c, its natural scale.

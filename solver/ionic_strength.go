@@ -18,6 +18,10 @@ const (
 	ionicAbsTol = 1e-16
 	// maxIonicIter bounds the outer iterations.
 	maxIonicIter = 100
+	// maxIonicStrength (mol/L) is where the model stops: the Davies
+	// equation is meaningless long before, and beyond it activity
+	// coefficients of multiply charged ions overflow.
+	maxIonicStrength = 20
 )
 
 // ionicStrength returns I = ½ Σ c z² over every free ion of the current
@@ -100,12 +104,19 @@ func fixedPoint(i0 float64, phi func(float64) (float64, error)) (float64, error)
 // solveSelfConsistent solves the charge balance with self-consistent
 // activity coefficients and returns ln[H+], I and the number of
 // charge-balance evaluations.
+
 func (md *model) solveSelfConsistent() (x, ionic float64, iters int, err error) {
 	x = md.xOfPH(startPH)
 	if md.activity == Ideal {
 		md.setIonicStrength(0)
 		x, iters, err = md.solveCharge(x)
-		return x, md.ionicStrength(x), iters, err
+		if err == nil {
+			ionic = md.ionicStrength(x)
+			if ionic > maxIonicStrength {
+				err = &RangeError{Quantity: "ionic strength", Value: ionic, Limit: maxIonicStrength}
+			}
+		}
+		return x, ionic, iters, err
 	}
 	ionic, err = fixedPoint(md.ionicGuess(), func(i float64) (float64, error) {
 		md.setIonicStrength(i)
@@ -113,7 +124,11 @@ func (md *model) solveSelfConsistent() (x, ionic float64, iters int, err error) 
 		var err error
 		x, n, err = md.solveCharge(x)
 		iters += n
-		return md.ionicStrength(x), err
+		next := md.ionicStrength(x)
+		if err == nil && next > maxIonicStrength {
+			err = &RangeError{Quantity: "ionic strength", Value: next, Limit: maxIonicStrength}
+		}
+		return next, err
 	})
 	return x, ionic, iters, err
 }

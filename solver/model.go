@@ -22,7 +22,9 @@ type model struct {
 	lnG float64
 	// fixedCharge is Σ z·c over the strong ions that form no complex.
 	fixedCharge float64
-	inner       innerSolver
+	// df is dF/dx at the last evaluation of the charge balance.
+	df    float64
+	inner innerSolver
 }
 
 // sysModel is one acid–base system. State k (0 = fully protonated) carries
@@ -30,6 +32,8 @@ type model struct {
 type sysModel struct {
 	total float64
 	top   int
+	// pKaT are the stepwise pKa at the temperature.
+	pKaT []float64
 	// lnBetaT[k] = −ln10·Σ_{j≤k} pKa_j(T): ln of the cumulative
 	// thermodynamic dissociation constant of state k (lnBetaT[0] = 0).
 	lnBetaT []float64
@@ -88,7 +92,7 @@ func newModel(m *Mixture) *model {
 	}
 	// One backing array for all per-state vectors keeps the model to a
 	// handful of allocations.
-	buf := make([]float64, 4*states)
+	buf := make([]float64, 5*states)
 	for i := range m.Systems {
 		s := &m.Systems[i]
 		n := len(s.PKa) + 1
@@ -98,9 +102,11 @@ func newModel(m *Mixture) *model {
 		sm.lnBeta, buf = buf[:n:n], buf[n:]
 		sm.alpha, buf = buf[:n:n], buf[n:]
 		sm.lnAlpha, buf = buf[:n:n], buf[n:]
+		sm.pKaT, buf = buf[:n-1:n-1], buf[n-1:]
 		cum := 0.0
 		for k := range s.PKa {
-			cum += systemPKa(s, k, m.TemperatureC)
+			sm.pKaT[k] = systemPKa(s, k, m.TemperatureC)
+			cum += sm.pKaT[k]
 			sm.lnBetaT[k+1] = -math.Ln10 * cum
 		}
 	}

@@ -5,6 +5,7 @@ import (
 	"math"
 	"strconv"
 	"strings"
+	"sync"
 )
 
 // Validity limits that trigger warnings.
@@ -55,12 +56,9 @@ func solveAtIonicStrength(m *Mixture, ionic float64) (*model, float64, error) {
 	return md, x, err
 }
 
-// result builds the Equilibrium from the model's speciation at x.
+// result builds the Equilibrium from the model's speciation at x, which
+// must be the point of the last charge-balance evaluation.
 func (md *model) result(m *Mixture, x, ionic float64, iters int) (*Equilibrium, error) {
-	_, df, err := md.evalCharge(x)
-	if err != nil {
-		return nil, err
-	}
 	g1 := math.Exp(md.lnG)
 	eq := &Equilibrium{
 		PH:             md.phOfX(x),
@@ -70,17 +68,52 @@ func (md *model) result(m *Mixture, x, ionic float64, iters int) (*Equilibrium, 
 		GammaOH:        g1,
 		IonicStrength:  ionic,
 		PKw:            -md.lnKwT / math.Ln10,
-		BufferCapacity: math.Ln10 * df, // β = dC_base/dpH = ln10·dF/dln[H+]
+		BufferCapacity: math.Ln10 * md.df, // β = dC_base/dpH = ln10·dF/dln[H+]
 		Systems:        make([]SystemState, len(md.systems)),
 		Strong:         make([]IonState, len(md.strong)),
 		Salts:          make([]SaltState, len(m.Salts)),
 		Complexes:      make([]ComplexState, len(md.complexes)),
 		Iterations:     iters,
 	}
+	// One backing array per element type for all systems: the result is
+	// built once per Solve, and few allocations keep Solve fast.
+	states := 0
+	for i := range md.systems {
+		states += len(md.systems[i].alpha)
+	}
+	floats := make([]float64, 5*states)
+	ints := make([]int, states)
+	labels := make([]string, states)
 	osm := eq.H + eq.OH
 	for i := range md.systems {
-		eq.Systems[i] = md.systemState(&m.Systems[i], i, m.TemperatureC)
-		osm += md.systems[i].free
+		sm, s := &md.systems[i], &m.Systems[i]
+		n := len(sm.alpha)
+		st := &eq.Systems[i]
+		st.Name = s.Name
+		st.PKa, floats = floats[:n-1:n-1], floats[n-1:]
+		st.Conc, floats = floats[:n:n], floats[n:]
+		st.Fractions, floats = floats[:n:n], floats[n:]
+		st.Gamma, floats = floats[:n:n], floats[n:]
+		st.Charges, ints = ints[:n:n], ints[n:]
+		st.Species, labels = labels[:n:n], labels[n:]
+		copy(st.PKa, sm.pKaT)
+		for k, a := range sm.alpha {
+			z := sm.top - k
+			st.Fractions[k] = a
+			st.Conc[k] = sm.free * a
+			st.Charges[k] = z
+			st.Gamma[k] = math.Exp(float64(z*z) * md.lnG)
+			st.MeanCharge += a * float64(z)
+			if a > sm.alpha[st.Dominant] {
+				st.Dominant = k
+			}
+			if len(s.Species) != 0 {
+				st.Species[k] = s.Species[k]
+			} else {
+				st.Species[k] = speciesLabel(n-1-k, z)
+			}
+		}
+		osm += sm.free
 	}
 	for i := range md.strong {
 		z := float64(md.strong[i].charge)
@@ -100,74 +133,36 @@ func (md *model) result(m *Mixture, x, ionic float64, iters int) (*Equilibrium, 
 		eq.Salts[i] = saltState(&m.Salts[i], eq, m.TemperatureC)
 	}
 	eq.Warnings = warnings(m, ionic)
-	if !eq.finite() {
-		return nil, &ConvergenceError{Stage: "result (values overflow: mixture beyond the model's range)", Iterations: iters, Residual: ionic}
+	if !eq.finite() || !(eq.BufferCapacity > 0) {
+		return nil, &RangeError{Quantity: "ionic strength", Value: ionic, Limit: maxIonicStrength}
 	}
 	return eq, nil
 }
 
-// finite reports whether every number of eq is finite; a last guard so
-// that an overflow in an extreme mixture becomes an error, never a NaN.
-func (eq *Equilibrium) finite() bool {
-	ok := finite(eq.PH) && finite(eq.H) && finite(eq.OH) && finite(eq.GammaH) &&
-		finite(eq.IonicStrength) && finite(eq.BufferCapacity) && finite(eq.Osmolarity)
-	for i := range eq.Systems {
-		s := &eq.Systems[i]
-		for k := range s.Conc {
-			ok = ok && finite(s.Conc[k]) && finite(s.Fractions[k]) && finite(s.Gamma[k])
+// labelCache holds generated species labels for the charges the
+// validation admits, so that results do not build strings on every Solve.
+var labelCache = sync.OnceValue(func() [][]string {
+	t := make([][]string, 2*maxCharge+1) // [protons][charge+maxCharge]
+	for p := range t {
+		t[p] = make([]string, 2*maxCharge+1)
+		for z := -maxCharge; z <= maxCharge; z++ {
+			t[p][z+maxCharge] = buildLabel(p, z)
 		}
-		ok = ok && finite(s.MeanCharge)
 	}
-	for _, s := range eq.Strong {
-		ok = ok && finite(s.Free) && finite(s.Gamma)
-	}
-	for _, s := range eq.Salts {
-		ok = ok && finite(s.SaturationIndex) && finite(s.PKsp)
-	}
-	for _, c := range eq.Complexes {
-		ok = ok && finite(c.Conc) && finite(c.LogK)
-	}
-	return ok
-}
+	return t
+})
 
-// systemState reports system i at the model's current speciation.
-func (md *model) systemState(s *System, i int, tempC float64) SystemState {
-	sm := &md.systems[i]
-	n := len(sm.alpha)
-	st := SystemState{
-		Name:      s.Name,
-		PKa:       make([]float64, n-1),
-		Species:   make([]string, n),
-		Conc:      make([]float64, n),
-		Fractions: make([]float64, n),
-		Gamma:     make([]float64, n),
-		Charges:   make([]int, n),
-	}
-	for k := range s.PKa {
-		st.PKa[k] = systemPKa(s, k, tempC)
-	}
-	for k, a := range sm.alpha {
-		z := sm.top - k
-		st.Fractions[k] = a
-		st.Conc[k] = sm.free * a
-		st.Charges[k] = z
-		st.Gamma[k] = math.Exp(float64(z*z) * md.lnG)
-		st.MeanCharge += a * float64(z)
-		if a > sm.alpha[st.Dominant] {
-			st.Dominant = k
-		}
-		if len(s.Species) != 0 {
-			st.Species[k] = s.Species[k]
-		} else {
-			st.Species[k] = speciesLabel(n-1-k, z)
-		}
-	}
-	return st
-}
-
-// speciesLabel generates a label such as "H2A-" for a state with the
-// given number of bound protons and charge.
+// speciesLabel returns a generated label such as "H2A-" for a state with
+// the given number of bound protons and charge.
 func speciesLabel(protons, charge int) string {
+	t := labelCache()
+	if protons < len(t) && charge >= -maxCharge && charge <= maxCharge {
+		return t[protons][charge+maxCharge]
+	}
+	return buildLabel(protons, charge)
+}
+
+func buildLabel(protons, charge int) string {
 	var b strings.Builder
 	switch {
 	case protons == 1:
@@ -253,4 +248,28 @@ func warnings(m *Mixture, ionic float64) []Warning {
 		}
 	}
 	return w
+}
+
+// finite reports whether every number of eq is finite; a last guard so
+// that an overflow in an extreme mixture becomes an error, never a NaN.
+func (eq *Equilibrium) finite() bool {
+	ok := finite(eq.PH) && finite(eq.H) && finite(eq.OH) && finite(eq.GammaH) &&
+		finite(eq.IonicStrength) && finite(eq.BufferCapacity) && finite(eq.Osmolarity)
+	for i := range eq.Systems {
+		s := &eq.Systems[i]
+		for k := range s.Conc {
+			ok = ok && finite(s.Conc[k]) && finite(s.Fractions[k]) && finite(s.Gamma[k])
+		}
+		ok = ok && finite(s.MeanCharge)
+	}
+	for _, s := range eq.Strong {
+		ok = ok && finite(s.Free) && finite(s.Gamma)
+	}
+	for _, s := range eq.Salts {
+		ok = ok && finite(s.SaturationIndex) && finite(s.PKsp)
+	}
+	for _, c := range eq.Complexes {
+		ok = ok && finite(c.Conc) && finite(c.LogK)
+	}
+	return ok
 }
