@@ -165,7 +165,7 @@ func projectCatalog(dir string) (*catalog.Catalog, diag.Problems) {
 	}
 	for _, c := range cfg.Catalogs {
 		p := filepath.Join(cfg.Dir, filepath.FromSlash(c.Value))
-		extra, ps := project.ReadCatalog(p)
+		extra, ps := project.ReadCatalog(p, cat)
 		if len(ps) > 0 {
 			return nil, ps
 		}

@@ -14,3 +14,13 @@ func TestDefaultParsesCleanly(t *testing.T) {
 		t.Fatal("Default() returned nil")
 	}
 }
+
+// TestDefaultHasNoInventedNumbers keeps made-up demo data out of the
+// built-in catalog: every source there is checked, from memory or derived.
+func TestDefaultHasNoInventedNumbers(t *testing.T) {
+	for id, s := range Default().Sources {
+		if s.Status != StatusChecked && s.Status != StatusFromMemory && s.Status != StatusDerived {
+			t.Errorf("source %s has status %q", id, s.Status)
+		}
+	}
+}

@@ -32,6 +32,9 @@ const (
 	StatusChecked    = "checked"
 	StatusFromMemory = "from memory"
 	StatusDerived    = "derived"
+	// StatusInvented marks made-up numbers, allowed only in demo and
+	// example catalogs (never in the built-in one, which a test checks).
+	StatusInvented = "invented"
 )
 
 var yamlLineRe = regexp.MustCompile(`line (\d+)`)

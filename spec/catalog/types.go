@@ -8,7 +8,7 @@ type Source struct {
 	ID string `yaml:"-" json:"id,omitempty"`
 	// Cite is the bibliographic reference.
 	Cite string `yaml:"cite" json:"cite"`
-	// Status is "checked" (read in a copy of the source), "from memory"
+	// Status is "invented" (demo data only), "checked" (read in a copy of the source), "from memory"
 	// (recalled, not yet checked) or "derived" (computed from other cited values).
 	Status string `yaml:"status,omitempty" json:"status,omitempty"`
 }

@@ -148,7 +148,7 @@ func (d *discovery) projectFor(dir string) *Project {
 			p.Problems = append(p.Problems, diag.Problem{Path: p.Config.Path, Line: c.Pos.Line, Column: c.Pos.Column, Message: fmt.Sprintf("catalog %s: %v", c.Value, unwrapPathErr(err))})
 			continue
 		}
-		extra, ps := ReadCatalog(cp)
+		extra, ps := ReadCatalog(cp, p.Catalog)
 		if len(ps) > 0 {
 			p.Problems = append(p.Problems, ps...)
 			continue
@@ -322,7 +322,7 @@ func (p *Project) evaluateNow(f *File, chain []string) (*evaluate.Result, diag.P
 	r := f.Recipe
 	cat := p.Catalog
 	if r.Catalog != nil {
-		inline, ps := catalog.FromNode(r.Catalog, f.Path)
+		inline, ps := catalog.FromNodeWithBase(r.Catalog, f.Path, cat)
 		if len(ps) > 0 {
 			return nil, ps
 		}
@@ -375,11 +375,12 @@ func Stocks(r *spec.Recipe) []string {
 	return out
 }
 
-// ReadCatalog reads and parses a project catalog file.
-func ReadCatalog(path string) (*catalog.Catalog, diag.Problems) {
+// ReadCatalog reads and parses a project catalog file whose entries may
+// refer to those of base.
+func ReadCatalog(path string, base *catalog.Catalog) (*catalog.Catalog, diag.Problems) {
 	data, err := readLimited(path)
 	if err != nil {
 		return nil, diag.Problems{{Path: path, Message: err.Error()}}
 	}
-	return catalog.Parse(data, path)
+	return catalog.ParseWithBase(data, path, base)
 }
