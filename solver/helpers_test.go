@@ -84,3 +84,15 @@ func chargeResidual(m *Mixture, eq *Equilibrium) (res, scale float64) {
 	add(-1, eq.OH)
 	return res, scale
 }
+
+// solveAtIonicStrength solves m with activity coefficients held at ionic
+// strength I instead of iterating them; used where γ is held fixed.
+func solveAtIonicStrength(m *Mixture, ionic float64) (*model, float64, error) {
+	if err := validate(m); err != nil {
+		return nil, 0, err
+	}
+	md := newModel(m)
+	md.setIonicStrength(ionic)
+	x, _, err := md.solveCharge(md.xOfPH(startPH))
+	return md, x, err
+}

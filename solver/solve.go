@@ -44,18 +44,6 @@ func Solve(m Mixture) (*Equilibrium, error) {
 	return md.result(&m, x, ionic, iters)
 }
 
-// solveAtIonicStrength solves m with activity coefficients held at ionic
-// strength I instead of iterating them; used where γ is held fixed.
-func solveAtIonicStrength(m *Mixture, ionic float64) (*model, float64, error) {
-	if err := validate(m); err != nil {
-		return nil, 0, err
-	}
-	md := newModel(m)
-	md.setIonicStrength(ionic)
-	x, _, err := md.solveCharge(md.xOfPH(startPH))
-	return md, x, err
-}
-
 // result builds the Equilibrium from the model's speciation at x, which
 // must be the point of the last charge-balance evaluation.
 func (md *model) result(m *Mixture, x, ionic float64, iters int) (*Equilibrium, error) {

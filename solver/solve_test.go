@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"strings"
 	"testing"
 )
 
@@ -258,5 +259,63 @@ func TestInvalidInput(t *testing.T) {
 				t.Errorf("error %+v, want field %s index %d", ie, c.field, c.index)
 			}
 		})
+	}
+}
+
+func TestRangeAndMessages(t *testing.T) {
+	// 10 mol/L MgSO4-like salt: I = 40 mol/L, beyond the model (package limit).
+	m := Mixture{Strong: []StrongIon{ion("Mg2+", 10, 2), ion("SO4 2-", 10, -2)}, TemperatureC: 25}
+	_, err := Solve(m)
+	var re *RangeError
+	if !errors.As(err, &re) || re.Limit != maxIonicStrength || !strings.Contains(re.Error(), "ionic strength") {
+		t.Errorf("error %v, want *RangeError on ionic strength", err)
+	}
+	ce := &ConvergenceError{Stage: "charge balance", Iterations: 200, Residual: 1e-3}
+	if !strings.Contains(ce.Error(), "charge balance") || !strings.Contains(ce.Error(), "200") {
+		t.Errorf("message %q", ce.Error())
+	}
+	ie := &InputError{Field: "TemperatureC", Index: -1, Message: "too hot"}
+	if ie.Error() != "solver: TemperatureC: too hot" {
+		t.Errorf("message %q", ie.Error())
+	}
+	for _, a := range []ActivityModel{Davies, Ideal, 7} {
+		if a.String() == "" {
+			t.Errorf("empty name for model %d", int(a))
+		}
+	}
+}
+
+func TestSaturationHydroxide(t *testing.T) {
+	// Ca(OH)2, pKsp 5.30 (CRC, reference file §4): 0.03 mol/L Ca(OH)2 is
+	// above its solubility (≈ 0.02 mol/L, common practice), 1 mM is below.
+	for _, c := range []struct {
+		conc float64
+		over bool
+	}{{0.03, true}, {0.001, false}} {
+		m := Mixture{Strong: []StrongIon{ion("Ca2+", c.conc, 2)},
+			Salts: []Salt{{Name: "portlandite", PKsp: 5.30, Terms: []SaltTerm{
+				{Ion: Ref{Kind: RefStrong, Index: 0}, Count: 1}, {Ion: Ref{Kind: RefHydroxide}, Count: 2}}}},
+			TemperatureC: 25}
+		eq, err := Solve(m)
+		if err != nil {
+			t.Fatal(err)
+		}
+		want := math.Log10(eq.Strong[0].Gamma*eq.Strong[0].Free) + 2*math.Log10(eq.GammaOH*eq.OH) + 5.30 // definition of SI
+		within(t, "SI", eq.Salts[0].SaturationIndex, want, 1e-12)
+		if (eq.Salts[0].SaturationIndex > 0) != c.over {
+			t.Errorf("%g mol/L: SI %.2f", c.conc, eq.Salts[0].SaturationIndex)
+		}
+	}
+}
+
+func TestGivenSpeciesLabels(t *testing.T) {
+	s := acetate(0.1)
+	s.Species = []string{"CH3COOH", "CH3COO-"}
+	eq, err := Solve(Mixture{Systems: []System{s}, TemperatureC: 25})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if eq.Systems[0].Species[1] != "CH3COO-" || eq.Systems[0].Dominant != 0 {
+		t.Errorf("species %v dominant %d", eq.Systems[0].Species, eq.Systems[0].Dominant)
 	}
 }

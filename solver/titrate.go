@@ -11,11 +11,10 @@ const MaxTitrant = 5.0
 
 // Titration control.
 const (
-	// samePHTol: a target this close to the mixture's own pH needs no
-	// titrant (the amount returned is exactly 0).
-	samePHTol = 1e-10
 	// titratePHTol is the accuracy demanded of the titrated pH; the
-	// documented contract is 1e-6, this leaves a wide margin.
+	// documented contract is 1e-6, this leaves a wide margin. A target
+	// this close to the mixture's own pH needs no titrant: the amount is
+	// exactly 0 (and rounding of the target cannot make it "unreachable").
 	titratePHTol = 1e-8
 	// maxTitrateIter bounds the bracketed search on the amount (each step
 	// is a full Solve); bisection alone reaches 1e-15 mol/L in ~60.
@@ -80,7 +79,7 @@ func Titrate(m Mixture, t Component, targetPH float64) (*Titration, error) {
 	if err != nil {
 		return nil, err
 	}
-	if math.Abs(eq0.PH-targetPH) <= samePHTol {
+	if math.Abs(eq0.PH-targetPH) <= titratePHTol {
 		return &Titration{Amount: 0, Equilibrium: eq0}, nil
 	}
 	if !touchesComplex(&m, &t) {

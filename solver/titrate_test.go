@@ -138,6 +138,9 @@ func TestWithDoesNotModify(t *testing.T) {
 	within(t, "original phosphate", m.Systems[0].Total, 0.05, 0)
 	within(t, "new Na+", n.Strong[0].Conc, 0.02, 1e-17)
 	within(t, "new phosphate", n.Systems[0].Total, 0.06, 1e-17)
+	// Out-of-range shares are skipped (documented behaviour of With).
+	bad := m.With(Component{StrongPerUnit: []Share{{Index: 9, Count: 1}}, SystemPerUnit: []Share{{Index: -1, Count: 1}}}, 1)
+	within(t, "unchanged Na+", bad.Strong[0].Conc, 0, 0)
 }
 
 func TestCurves(t *testing.T) {
