@@ -31,7 +31,7 @@ type System struct {
 	// states together, in mol/L (or mol/kg of water on a molal basis).
 	Total float64
 	// TopCharge is the charge of the fully protonated form (H3PO4: 0,
-	// TrisH+: +1, H3Gly+... glycine as H2Gly+: +1).
+	// TrisH+: +1, glycine as H2Gly+: +1). State k has charge TopCharge − k.
 	TopCharge int
 	// PKa holds the stepwise acid dissociation constants at 25 °C on the
 	// thermodynamic (infinite dilution) scale, first step first; they must
@@ -83,6 +83,7 @@ const (
 
 // Ref names one dissolved species of a mixture.
 type Ref struct {
+	// Kind says what Index points at.
 	Kind RefKind
 	// Index is the index into Mixture.Strong or Mixture.Systems.
 	Index int
@@ -94,7 +95,9 @@ type Ref struct {
 // SaltTerm is one ion of a sparingly soluble salt with its stoichiometric
 // coefficient, e.g. Ca²+ ×3 in Ca3(PO4)2.
 type SaltTerm struct {
-	Ion   Ref
+	// Ion is the dissolved species.
+	Ion Ref
+	// Count is its stoichiometric coefficient (positive).
 	Count int
 }
 
@@ -129,10 +132,16 @@ type Complex struct {
 
 // Mixture is a complete aqueous solution to solve.
 type Mixture struct {
-	Systems   []System
-	Strong    []StrongIon
-	Neutrals  []Neutral
-	Salts     []Salt
+	// Systems are the weak acid–base systems (totals only).
+	Systems []System
+	// Strong are the fully dissociated ions, including the counter-ions
+	// that say how each ingredient entered the solution.
+	Strong []StrongIon
+	// Neutrals count only for osmolarity.
+	Neutrals []Neutral
+	// Salts are the solids whose saturation index is reported.
+	Salts []Salt
+	// Complexes are the 1:1 complexes allowed to form.
 	Complexes []Complex
 	// TemperatureC is the temperature in °C (valid 0–100).
 	TemperatureC float64
@@ -149,13 +158,17 @@ type Mixture struct {
 // caller with a zero concentration.
 type Component struct {
 	// Name identifies the component in results and errors.
-	Name          string
+	Name string
+	// StrongPerUnit lists the strong ions one unit adds.
 	StrongPerUnit []Share
+	// SystemPerUnit lists the system totals one unit adds.
 	SystemPerUnit []Share
 }
 
 // Share is an amount of one mixture entry per unit of a Component.
 type Share struct {
+	// Index is the position in Mixture.Strong or Mixture.Systems.
 	Index int
+	// Count is the amount (mol) per mol of the component.
 	Count float64
 }

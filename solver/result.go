@@ -32,12 +32,13 @@ type Equilibrium struct {
 	// Warnings are conditions a caller should show (e.g. ionic strength
 	// beyond the activity model's validity); never fatal.
 	Warnings []Warning
-	// Iterations is the total number of charge-balance iterations used.
+	// Iterations is the total number of charge-balance evaluations used.
 	Iterations int
 }
 
 // SystemState is the speciation of one acid–base system at equilibrium.
 type SystemState struct {
+	// Name is the system's name.
 	Name string
 	// PKa are the stepwise constants at the mixture's temperature
 	// (thermodynamic, infinite dilution).
@@ -60,15 +61,20 @@ type SystemState struct {
 
 // IonState is the free state of one strong ion.
 type IonState struct {
-	Name  string
-	Free  float64
+	// Name is the ion's name.
+	Name string
+	// Free is its free (uncomplexed) concentration.
+	Free float64
+	// Gamma is its activity coefficient.
 	Gamma float64
 }
 
 // SaltState is the saturation of one declared salt.
 type SaltState struct {
+	// Name is the salt's name.
 	Name string
-	// SaturationIndex is log10(IAP/Ksp); above 0 the solution is supersaturated.
+	// SaturationIndex is log10(IAP/Ksp); above 0 the solution is
+	// supersaturated. It is never below SaturationIndexFloor.
 	SaturationIndex float64
 	// PKsp is −log10 Ksp at the mixture's temperature.
 	PKsp float64
@@ -76,9 +82,12 @@ type SaltState struct {
 
 // ComplexState is the concentration of one metal–ligand complex.
 type ComplexState struct {
+	// Name is the complex's name.
 	Name string
+	// Conc is its concentration.
 	Conc float64
-	// LogK is the formation constant at the mixture's temperature.
+	// LogK is log10 of the thermodynamic formation constant at the
+	// mixture's temperature.
 	LogK float64
 }
 
@@ -95,7 +104,9 @@ const (
 
 // Warning is a non-fatal condition found while solving.
 type Warning struct {
-	Kind    WarningKind
+	// Kind classifies the warning.
+	Kind WarningKind
+	// Message is a readable explanation.
 	Message string
 	// Value is the quantity that triggered it (e.g. the ionic strength).
 	Value float64
