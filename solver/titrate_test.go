@@ -134,13 +134,13 @@ func TestWithDoesNotModify(t *testing.T) {
 	m := phosphateWithCounterIons()
 	c := Component{Name: "Na2HPO4", StrongPerUnit: []Share{{Index: 0, Count: 2}}, SystemPerUnit: []Share{{Index: 0, Count: 1}}}
 	n := m.With(c, 0.01)
-	within(t, "original Na+", m.Strong[0].Conc, 0, 0)
-	within(t, "original phosphate", m.Systems[0].Total, 0.05, 0)
+	within(t, "original Na+", m.Strong[0].Conc, 0, 1e-15)
+	within(t, "original phosphate", m.Systems[0].Total, 0.05, 1e-15)
 	within(t, "new Na+", n.Strong[0].Conc, 0.02, 1e-17)
 	within(t, "new phosphate", n.Systems[0].Total, 0.06, 1e-17)
 	// Out-of-range shares are skipped (documented behaviour of With).
 	bad := m.With(Component{StrongPerUnit: []Share{{Index: 9, Count: 1}}, SystemPerUnit: []Share{{Index: -1, Count: 1}}}, 1)
-	within(t, "unchanged Na+", bad.Strong[0].Conc, 0, 0)
+	within(t, "unchanged Na+", bad.Strong[0].Conc, 0, 1e-15)
 }
 
 func TestCurves(t *testing.T) {
