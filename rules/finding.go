@@ -59,6 +59,9 @@ type Finding struct {
 	Fix string `json:"fix,omitempty"`
 	// Waived holds the waiver's reason when a waiver accepted the finding.
 	Waived string `json:"waived,omitempty"`
+	// WaivedIn is the file that holds the waiver (the recipe itself, or
+	// the project's phgate.yaml).
+	WaivedIn string `json:"waived_in,omitempty"`
 }
 
 // SortFindings orders findings by path, line, column, rule and message,

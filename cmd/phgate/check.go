@@ -2,6 +2,7 @@ package main
 
 import (
 	"runtime"
+	"strings"
 	"sync"
 
 	"github.com/phgate/phgate/rules"
@@ -12,7 +13,7 @@ import (
 
 func (a *App) check(args []string) int {
 	fs := a.flags("check", "[PATH...]")
-	format := fs.String("format", "text", "output format: text or json")
+	format := fs.String("format", "text", "output format: "+strings.Join(report.Names(), ", "))
 	failOn := fs.String("fail-on", "error", "lowest severity that makes the exit status 1: error, warning or never")
 	jobs := fs.Int("jobs", runtime.NumCPU(), "recipes solved in parallel")
 	paths, err := parse(fs, args)
@@ -54,19 +55,32 @@ func failThreshold(s string) (rules.Severity, bool) {
 }
 
 // exitStatus is the maximum over stages: problems → 2, findings at or
-// above the threshold → 1.
+// above the threshold that no waiver accepted → 1.
 func exitStatus(rep *report.Report, threshold rules.Severity) int {
 	if len(rep.Problems) > 0 {
 		return ExitProblem
 	}
-	for _, r := range rep.Recipes {
-		for _, f := range r.Findings {
-			if f.Waived == "" && f.Severity >= threshold {
-				return ExitFindings
-			}
+	for _, f := range rep.All() {
+		if f.Waived == "" && f.Severity >= threshold {
+			return ExitFindings
 		}
 	}
 	return ExitOK
+}
+
+// policies builds the rule policy of every project of a run; problems in
+// a project's rules: or waivers: are reported at their config lines.
+func policies(run *project.Run) (map[*project.Project]*rules.Policy, diag.Problems) {
+	out := map[*project.Project]*rules.Policy{}
+	var ps diag.Problems
+	for _, p := range run.Projects {
+		ps = append(ps, p.Problems...)
+		c := p.Config
+		pol, cps := rules.NewPolicy(c.Rules, c.Waivers, c.Path, c.DefaultTolerance)
+		ps = append(ps, cps...)
+		out[p] = pol
+	}
+	return out, ps
 }
 
 // runCheck discovers, solves and checks recipes on jobs workers; the
@@ -74,9 +88,8 @@ func exitStatus(rep *report.Report, threshold rules.Severity) int {
 func (a *App) runCheck(paths []string, jobs int) *report.Report {
 	run := project.Discover(paths)
 	rep := &report.Report{}
-	for _, p := range run.Projects {
-		rep.Problems = append(rep.Problems, p.Problems...)
-	}
+	pols, ps := policies(run)
+	rep.Problems = append(rep.Problems, ps...)
 	results := make([]*report.Recipe, len(run.Files))
 	problems := make([]diag.Problems, len(run.Files))
 	var wg sync.WaitGroup
@@ -86,12 +99,18 @@ func (a *App) runCheck(paths []string, jobs int) *report.Report {
 		go func() {
 			defer wg.Done()
 			for i := range next {
-				res, ps := run.Files[i].Evaluate()
+				file := run.Files[i]
+				res, ps := file.Evaluate()
 				if len(ps) > 0 {
 					problems[i] = ps
 					continue
 				}
-				r := report.Build(res, rules.Check(res))
+				fs, ps := pols[file.Project()].Check(res)
+				if len(ps) > 0 {
+					problems[i] = ps
+					continue
+				}
+				r := report.Build(res, fs)
 				results[i] = &r
 			}
 		}()
@@ -106,6 +125,9 @@ func (a *App) runCheck(paths []string, jobs int) *report.Report {
 			rep.Recipes = append(rep.Recipes, *results[i])
 		}
 		rep.Problems = append(rep.Problems, problems[i]...)
+	}
+	for _, p := range run.Projects {
+		rep.Findings = append(rep.Findings, pols[p].Stale(p.IDs())...)
 	}
 	rep.Finish(run.Skipped)
 	return rep

@@ -4,7 +4,6 @@ import (
 	"encoding/json"
 	"fmt"
 
-	"github.com/phgate/phgate/rules"
 	"github.com/phgate/phgate/rules/report"
 	"github.com/phgate/phgate/spec/diag"
 	"github.com/phgate/phgate/spec/project"
@@ -28,16 +27,20 @@ func (a *App) show(args []string) int {
 	if len(run.Files) != 1 {
 		return a.fail("%s: not a recipe file", paths[0])
 	}
-	for _, p := range run.Projects {
-		if len(p.Problems) > 0 {
-			return a.problems(p.Problems)
-		}
-	}
-	res, ps := run.Files[0].Evaluate()
+	pols, ps := policies(run)
 	if len(ps) > 0 {
 		return a.problems(ps)
 	}
-	r := report.Build(res, rules.Check(res))
+	file := run.Files[0]
+	res, ps := file.Evaluate()
+	if len(ps) > 0 {
+		return a.problems(ps)
+	}
+	findings, ps := pols[file.Project()].Check(res)
+	if len(ps) > 0 {
+		return a.problems(ps)
+	}
+	r := report.Build(res, findings)
 	switch *format {
 	case "json":
 		enc := json.NewEncoder(a.Stdout)

@@ -18,9 +18,12 @@ const Caution = "Computed values are estimates from an equilibrium model; confir
 
 // Report is the whole output of a check run.
 type Report struct {
-	Recipes  []Recipe       `json:"recipes"`
-	Problems []diag.Problem `json:"problems"`
-	Summary  Summary        `json:"summary"`
+	Recipes []Recipe `json:"recipes"`
+	// Findings are those outside any recipe file, such as a stale
+	// project-wide waiver in phgate.yaml.
+	Findings []rules.Finding `json:"project_findings"`
+	Problems []diag.Problem  `json:"problems"`
+	Summary  Summary         `json:"summary"`
 }
 
 // Summary counts what the run saw.
@@ -190,27 +193,39 @@ func Build(res *evaluate.Result, findings []rules.Finding) Recipe {
 func (rep *Report) Finish(skipped int) {
 	sort.SliceStable(rep.Recipes, func(i, j int) bool { return rep.Recipes[i].Path < rep.Recipes[j].Path })
 	sortProblems(rep.Problems)
+	rep.Findings = rules.SortFindings(rep.Findings)
 	rep.Summary = Summary{Recipes: len(rep.Recipes), Skipped: skipped, Problems: len(rep.Problems)}
-	for _, r := range rep.Recipes {
-		for _, f := range r.Findings {
-			switch {
-			case f.Waived != "":
-				rep.Summary.Waived++
-			case f.Severity == rules.Error:
-				rep.Summary.Errors++
-			case f.Severity == rules.Warning:
-				rep.Summary.Warnings++
-			default:
-				rep.Summary.Infos++
-			}
+	for _, f := range rep.All() {
+		switch {
+		case f.Waived != "":
+			rep.Summary.Waived++
+		case f.Severity == rules.Error:
+			rep.Summary.Errors++
+		case f.Severity == rules.Warning:
+			rep.Summary.Warnings++
+		default:
+			rep.Summary.Infos++
 		}
 	}
 	if rep.Recipes == nil {
 		rep.Recipes = []Recipe{}
 	}
+	if rep.Findings == nil {
+		rep.Findings = []rules.Finding{}
+	}
 	if rep.Problems == nil {
 		rep.Problems = []diag.Problem{}
 	}
+}
+
+// All returns every finding of the report: each recipe's in path order,
+// then the project findings.
+func (rep *Report) All() []rules.Finding {
+	var out []rules.Finding
+	for _, r := range rep.Recipes {
+		out = append(out, r.Findings...)
+	}
+	return append(out, rep.Findings...)
 }
 
 func sortProblems(ps []diag.Problem) {
