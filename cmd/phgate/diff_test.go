@@ -82,7 +82,9 @@ ingredients:
     sources: [house-bench]
 `
 
-func recipeYAML(id, body string) string { return "recipe: " + id + "\nbasis: 1 L\ntemperature: 25 C\n" + body }
+func recipeYAML(id, body string) string {
+	return "recipe: " + id + "\nbasis: 1 L\ntemperature: 25 C\n" + body
+}
 
 // diffRepo builds a repository with two commits: the second edits a stock
 // recipe (and so moves a recipe that uses it), edits a catalog entry,
