@@ -509,3 +509,113 @@ func TestDiffRefusesMaliciousRevisions(t *testing.T) {
 		t.Errorf("the repository's top folder holds %v, want .git, catalog, phgate.yaml and recipes only", names)
 	}
 }
+
+// TestDiffGolden compares whole outputs with the files under
+// testdata/golden/diff (JSON structurally); -update rewrites them.
+func TestDiffGolden(t *testing.T) {
+	dir := diffRepo(t)
+	for _, format := range []string{"text", "json", "markdown"} {
+		t.Run(format, func(t *testing.T) {
+			code, out, errs := runDiff("diff", "--repo", dir, "--base", "HEAD~1", "--head", "HEAD", "--format", format,
+				"--max-ph-shift", "0.5", "--fail-on-new", "error")
+			if code != ExitFindings {
+				t.Fatalf("exit %d, want %d (the edited recipe crosses both gates)\n%s", code, ExitFindings, errs)
+			}
+			ext := map[string]string{"text": ".txt", "json": ".json", "markdown": ".md"}[format]
+			golden := filepath.Join("..", "..", "testdata", "golden", "diff", "revisions"+ext)
+			if updateGolden() {
+				if err := os.MkdirAll(filepath.Dir(golden), 0o755); err != nil {
+					t.Fatal(err)
+				}
+				if err := os.WriteFile(golden, []byte(out), 0o644); err != nil {
+					t.Fatal(err)
+				}
+				return
+			}
+			want, err := os.ReadFile(golden)
+			if err != nil {
+				t.Fatalf("%v (run go test -run TestDiffGolden -update)", err)
+			}
+			if format == "json" {
+				var got, exp any
+				if err := json.Unmarshal([]byte(out), &got); err != nil {
+					t.Fatal(err)
+				}
+				if err := json.Unmarshal(want, &exp); err != nil {
+					t.Fatal(err)
+				}
+				if !reflect.DeepEqual(got, exp) {
+					t.Errorf("JSON differs from %s:\n%s", golden, out)
+				}
+				return
+			}
+			if out != string(want) {
+				t.Errorf("output differs from %s:\n%s", golden, out)
+			}
+		})
+	}
+}
+
+func TestDiffFilesAndFolders(t *testing.T) {
+	dir := t.TempDir()
+	oldDir, newDir := filepath.Join(dir, "old"), filepath.Join(dir, "new")
+	body := `ingredients:
+  - use: citric-acid-monohydrate
+    amount: 3.0 g
+  - use: trisodium-citrate-dihydrate
+    amount: 1.2 g
+  - use: purified-water
+    amount: q.s.
+`
+	putFile(t, oldDir, "a.yaml", recipeYAML("drink-a", body))
+	putFile(t, oldDir, "b.yaml", recipeYAML("drink-b", body))
+	putFile(t, newDir, "sub/a-moved.yaml", recipeYAML("drink-a", body))
+	putFile(t, newDir, "b.yaml", recipeYAML("drink-b", strings.Replace(body, "3.0 g", "2.0 g", 1)))
+	putFile(t, newDir, "c.yaml", recipeYAML("drink-c", body))
+	putFile(t, newDir, "broken.yaml", recipeYAML("drink-d", strings.Replace(body, "citric-acid-monohydrate", "citric-acid-monohydrat", 1)))
+
+	code, out, errs := runDiff("diff", "--format", "json", oldDir, newDir)
+	if code != ExitProblem {
+		t.Errorf("a recipe the new side cannot solve: exit %d, want %d\n%s", code, ExitProblem, errs)
+	}
+	got := map[string]string{}
+	for _, c := range decodeDiff(t, out).Changes {
+		got[c.Recipe] = c.Status + " " + c.OldPath + " " + c.NewPath
+	}
+	want := map[string]string{
+		"drink-a": "renamed a.yaml sub/a-moved.yaml",
+		"drink-b": "modified b.yaml b.yaml",
+		"drink-c": "added  c.yaml",
+		"drink-d": "added  broken.yaml",
+	}
+	if !reflect.DeepEqual(got, want) {
+		t.Errorf("changes %v, want %v", got, want)
+	}
+
+	tests := []struct {
+		name string
+		args []string
+		want int
+	}{
+		{"two files with different ids pair up", []string{filepath.Join(oldDir, "a.yaml"), filepath.Join(newDir, "b.yaml")}, ExitOK},
+		{"file against folder", []string{filepath.Join(oldDir, "a.yaml"), newDir}, ExitProblem},
+		{"missing file", []string{filepath.Join(oldDir, "zz.yaml"), filepath.Join(newDir, "b.yaml")}, ExitProblem},
+		{"one argument", []string{oldDir}, ExitProblem},
+		{"head without base", []string{"--head", "HEAD", oldDir, newDir}, ExitProblem},
+		{"unknown format", []string{"--format", "yaml", oldDir, newDir}, ExitProblem},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			code, out, errs := runDiff(append([]string{"diff", "--format", "json"}, tc.args...)...)
+			if code != tc.want {
+				t.Fatalf("exit %d, want %d\n%s%s", code, tc.want, out, errs)
+			}
+			if tc.want == ExitOK {
+				d := decodeDiff(t, out)
+				if len(d.Changes) != 1 || d.Changes[0].Recipe != "drink-b" || d.Changes[0].DeltaPH == nil || *d.Changes[0].DeltaPH == 0 {
+					t.Errorf("want drink-a paired with drink-b and a pH shift, got %s", out)
+				}
+			}
+		})
+	}
+}

@@ -184,23 +184,25 @@ func causeText(c Change, md bool) string {
 		case CauseConfig:
 			s = q(k.Name)
 		}
+		var extra []string
 		if k.Path != "" && k.Kind != CauseConfig && !strings.HasPrefix(k.Path, "data/") {
-			s += " in " + q(k.Path)
+			extra = append(extra, q(k.Path))
 		}
 		if k.Note != "" {
-			s += " " + k.Note
-		} else {
-			s += " changed"
+			extra = append(extra, k.Note)
+		}
+		if len(extra) > 0 {
+			s += " (" + strings.Join(extra, ", ") + ")"
 		}
 		parts = append(parts, s)
 	}
 	switch {
 	case c.RecipeEdited && len(parts) > 0:
-		return "recipe edited; also " + strings.Join(parts, ", ")
+		return "recipe edited; also changed: " + strings.Join(parts, ", ")
 	case c.RecipeEdited:
 		return "recipe edited"
 	case len(parts) > 0:
-		return "recipe file unchanged; moved by " + strings.Join(parts, ", ")
+		return "recipe file unchanged; moved by a change to " + strings.Join(parts, ", ")
 	}
 	return ""
 }
