@@ -10,14 +10,17 @@ import (
 
 	"github.com/phgate/phgate/rules"
 	"github.com/phgate/phgate/rules/review"
-	"github.com/phgate/phgate/spec/evaluate"
+	"github.com/phgate/phgate/spec/diag"
 	"github.com/phgate/phgate/spec/gitrev"
 	"github.com/phgate/phgate/spec/project"
 )
 
-// diffCheck runs the rules on one side's recipe: the single place where
-// the diff command calls into the rule engine.
-func diffCheck(_ *project.File, res *evaluate.Result) []rules.Finding { return rules.Check(res) }
+// diffRules builds a project's rule policy, exactly as check does: the
+// single place where the diff command meets rule configuration.
+func diffRules(p *project.Project) (review.Rules, diag.Problems) {
+	c := p.Config
+	return rules.NewPolicy(c.Rules, c.Waivers, c.Path, c.DefaultTolerance)
+}
 
 func (a *App) diff(args []string) int {
 	fs := a.flags("diff", "OLD NEW | --base REV [--head REV] [PATH...]")
@@ -122,9 +125,9 @@ func (a *App) diffPaths(oldPath, newPath string) (old, new *review.Side, pair bo
 	}
 	side := func(p string) *review.Side {
 		if dirs[0] {
-			return review.Load(p, p, []string{p}, diffCheck)
+			return review.Load(p, p, []string{p}, diffRules)
 		}
-		return review.Load(p, filepath.Dir(p), []string{p}, diffCheck)
+		return review.Load(p, filepath.Dir(p), []string{p}, diffRules)
 	}
 	return side(oldPath), side(newPath), !dirs[0], ExitOK
 }
@@ -188,8 +191,8 @@ func (a *App) diffGit(dir, baseRev, headRev string, paths []string) (old, new *r
 	if len(oldTargets) == 0 && len(newTargets) == 0 {
 		return nil, nil, cleanup, a.fail("%s: not found in %s nor in the %s", strings.Join(rels, ", "), baseRev, newLabel)
 	}
-	old = review.Load(fmt.Sprintf("%s (%s)", baseC.Short(), baseRev), oldRoot, oldTargets, diffCheck)
-	new = review.Load(newLabel, newRoot, newTargets, diffCheck)
+	old = review.Load(fmt.Sprintf("%s (%s)", baseC.Short(), baseRev), oldRoot, oldTargets, diffRules)
+	new = review.Load(newLabel, newRoot, newTargets, diffRules)
 	return old, new, cleanup, ExitOK
 }
 

@@ -272,8 +272,14 @@ func compareOne(o, n *Recipe) (Change, bool) {
 	c.Before, c.After = state(o), state(n)
 	c.RecipeEdited = o.Sum != n.Sum
 	c.Causes = causes(o, n)
+	// Identical inputs solve to identical results: the deltas are then
+	// exactly 0 by definition, not by a subtraction.
+	sameInputs := !c.RecipeEdited && len(c.Causes) == 0
 	if o.Result != nil && n.Result != nil {
 		oe, ne := o.Result.Equilibrium, n.Result.Equilibrium
+		if sameInputs {
+			oe = ne
+		}
 		c.rawDeltaPH = delta(oe.PH, ne.PH)
 		c.DeltaPH = ptr(round(c.rawDeltaPH, 4))
 		c.DeltaBufferCapacity = ptr(round(delta(oe.BufferCapacity, ne.BufferCapacity), 6))
@@ -283,7 +289,7 @@ func compareOne(o, n *Recipe) (Change, bool) {
 		c.Ingredients = ingredientChanges(o.Report, n.Report)
 	}
 	c.NewFindings, c.GoneFindings = findingChanges(o.findings(), n.findings())
-	moved := resultsMoved(o, n) || len(c.NewFindings) > 0 || len(c.GoneFindings) > 0 ||
+	moved := (!sameInputs && resultsMoved(o, n)) || len(c.NewFindings) > 0 || len(c.GoneFindings) > 0 ||
 		!sameProblems(o.Problems, n.Problems)
 	switch {
 	case o.Path != n.Path:

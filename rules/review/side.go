@@ -16,9 +16,15 @@ import (
 	"github.com/phgate/phgate/spec/project"
 )
 
-// Checker runs the rules on one solved recipe of a side. The command line
-// passes its own, so a change to how rules are configured stays there.
-type Checker func(f *project.File, res *evaluate.Result) []rules.Finding
+// Rules checks the solved recipes of one project (a *rules.Policy does).
+type Rules interface {
+	Check(res *evaluate.Result) ([]rules.Finding, diag.Problems)
+}
+
+// RulesFor builds the rule policy of a project from its phgate.yaml;
+// problems are positioned in that file. The command line passes its own,
+// so how rules are configured is decided in one place.
+type RulesFor func(p *project.Project) (Rules, diag.Problems)
 
 // Side is one evaluated version of a set of recipes.
 type Side struct {
@@ -75,7 +81,7 @@ type Input struct {
 // Load discovers, solves and checks the recipes under paths (files or
 // folders, inside root; none gives an empty side) and records, for each, the
 // inputs its result depends on.
-func Load(label, root string, paths []string, check Checker) *Side {
+func Load(label, root string, paths []string, rulesFor RulesFor) *Side {
 	absRoot, err := filepath.Abs(root)
 	if err != nil {
 		absRoot = root
@@ -85,8 +91,12 @@ func Load(label, root string, paths []string, check Checker) *Side {
 		return s
 	}
 	run := project.Discover(paths)
+	policies := map[*project.Project]Rules{}
 	for _, p := range run.Projects {
 		s.Problems = append(s.Problems, s.relProblems(p.Problems)...)
+		pol, ps := rulesFor(p)
+		s.Problems = append(s.Problems, s.relProblems(ps)...)
+		policies[p] = pol
 		if p.Config != nil && p.Config.Path != "" {
 			s.Inputs[s.rel(p.Config.Path)] = fileSum(p.Config.Path)
 			for _, c := range p.Config.Catalogs {
@@ -96,13 +106,13 @@ func Load(label, root string, paths []string, check Checker) *Side {
 		}
 	}
 	for _, f := range run.Files {
-		s.Recipes = append(s.Recipes, s.load(f, check))
+		s.Recipes = append(s.Recipes, s.load(f, policies[f.Project()]))
 	}
 	sort.SliceStable(s.Recipes, func(i, j int) bool { return s.Recipes[i].Path < s.Recipes[j].Path })
 	return s
 }
 
-func (s *Side) load(f *project.File, check Checker) *Recipe {
+func (s *Side) load(f *project.File, pol Rules) *Recipe {
 	r := &Recipe{Path: s.rel(f.Path), Sum: fileSum(f.Path)}
 	if f.Recipe == nil {
 		r.Problems = s.relProblems(f.Problems)
@@ -118,7 +128,17 @@ func (s *Side) load(f *project.File, check Checker) *Recipe {
 		r.Problems = s.relProblems(ps)
 		return r
 	}
-	rep := report.Build(res, check(f, res))
+	if pol == nil {
+		// A file outside every discovered project cannot happen with
+		// project.Discover; fail loudly rather than skip its rules.
+		panic("review: no rule policy for " + f.Path)
+	}
+	findings, ps := pol.Check(res)
+	if len(ps) > 0 {
+		r.Problems = s.relProblems(ps)
+		return r
+	}
+	rep := report.Build(res, findings)
 	rep.Path = r.Path
 	for i := range rep.Findings {
 		rep.Findings[i].Path = s.rel(rep.Findings[i].Path)
