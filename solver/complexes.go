@@ -16,17 +16,24 @@ import "math"
 //	Φ(u,v) = Σ_i e^{u_i} + Σ_s e^{v_s} + Σ_j K'_j α_j e^{u_i+v_s} − Σ c_i u_i − Σ C_s v_s,
 //
 // so Newton's method with an Armijo backtracking line search on Φ converges
-// from any start; when a step is refused, an exact minimisation over the
-// metals and then the ligands (the classical alternating scaling) still
-// lowers Φ. The Hessian of Φ is the Jacobian J = ∂(totals)/∂(u,v), which
+// from any start. When the Newton matrix is numerically singular (both
+// partners of a strong complex nearly used up) or no step is accepted, an
+// exact minimisation of Φ over each complex's metal–ligand pair (a
+// closed-form quadratic) lowers Φ instead and resolves strong binding in
+// one sweep. The Hessian of Φ is the Jacobian J = ∂(totals)/∂(u,v), which
 // is symmetric positive definite; it is reused for the derivatives of the
 // charge balance (implicit function theorem).
 
 // Convergence control of the complexation solve.
 const (
-	// innerTol is the largest relative mass-balance error accepted; it
-	// keeps the mass balances closed far below the 1e-10 users check.
+	// innerTol is the relative mass-balance error at which the solve
+	// stops; it keeps the mass balances closed far below the 1e-10 users
+	// check.
 	innerTol = 1e-13
+	// innerFloorTol is accepted instead when the iteration stalls (the
+	// error no longer halves): with nanomolar partners next to molar ones
+	// rounding can leave ~1e-13, still well inside 1e-10.
+	innerFloorTol = 1e-11
 	// maxInnerIter bounds the Newton iterations (each is also a descent
 	// step, so the bound is only reached for pathological data).
 	maxInnerIter = 200
@@ -197,46 +204,112 @@ func (in *innerSolver) cholSolve(b []float64) {
 	}
 }
 
-// scale performs one exact minimisation of Φ over the metal slots, then
-// over the ligand slots: ln free = ln total − ln(1 + Σ K'α·partner).
-func (in *innerSolver) scale(md *model) {
-	for pass := 0; pass < 2; pass++ {
-		for r := 0; r < in.p; r++ {
-			if (pass == 0) != (in.metal[r] >= 0) {
-				continue
-			}
-			top := 0.0
-			for j := range md.complexes {
-				if q, ok := in.partnerTerm(md, j, r); ok && q > top {
-					top = q
-				}
-			}
-			sum := math.Exp(-top)
-			for j := range md.complexes {
-				if q, ok := in.partnerTerm(md, j, r); ok {
-					sum += math.Exp(q - top)
-				}
-			}
-			in.y[r] = math.Log(in.total[r]) - top - math.Log(sum)
+// pairSweep minimises Φ exactly over the (metal, ligand) pair of each
+// active complex in turn, the other partners held fixed. Each is an exact
+// block minimisation of a convex function, so Φ never increases; and a
+// pair that dominates its partners' chemistry (strong binding, where the
+// Newton matrix is numerically singular) is solved in one step.
+func (in *innerSolver) pairSweep(md *model) {
+	for j := range md.complexes {
+		if md.complexes[j].active {
+			in.pairStep(md, j)
 		}
 	}
 }
 
-// partnerTerm returns ln(K'_j α_j · partner) for complex j if it involves
-// slot r.
-func (in *innerSolver) partnerTerm(md *model, j, r int) (float64, bool) {
-	c := &md.complexes[j]
+// pairStep solves, for the pair (M, L) of complex j,
+//
+//	M·(p + a·L) = c_M,   L·(q + a·M) = C_L
+//
+// where a sums K'α over the complexes of this very pair and p − 1, q − 1
+// are the (fixed) complexation of M and L by other partners.
+func (in *innerSolver) pairStep(md *model, j int) {
+	rm, rs := slots(md, &md.complexes[j])
+	a, p, q := 0.0, 1.0, 1.0
+	for k := range md.complexes {
+		c := &md.complexes[k]
+		if !c.active {
+			continue
+		}
+		km, ks := slots(md, c)
+		switch {
+		case km == rm && ks == rs:
+			a += math.Exp(in.lnA[k])
+		case km == rm:
+			p += math.Exp(in.lnA[k] + in.y[ks])
+		case ks == rs:
+			q += math.Exp(in.lnA[k] + in.y[km])
+		}
+	}
+	m := pairRoot(in.total[rm], in.total[rs], p, q, a)
+	l := pairRoot(in.total[rs], in.total[rm], q, p, a)
+	if m > 0 && l > 0 && finite(m) && finite(l) && finite(a) && finite(p) && finite(q) {
+		in.y[rm], in.y[rs] = math.Log(m), math.Log(l)
+		return
+	}
+	// Constants beyond the floating-point range (K'α > 1e308): minimise
+	// over each partner alone, in logarithms, which is always representable.
+	in.scaleSlot(md, rm)
+	in.scaleSlot(md, rs)
+}
+
+// scaleSlot minimises Φ exactly over slot r alone:
+// ln free_r = ln total_r − ln(1 + Σ_k K'_k α_k·partner_k), computed as a
+// log-sum-exp so that it cannot overflow.
+func (in *innerSolver) scaleSlot(md *model, r int) {
+	top := 0.0
+	for k := range md.complexes {
+		if t, ok := in.partnerLog(md, k, r); ok {
+			top = math.Max(top, t)
+		}
+	}
+	sum := math.Exp(-top)
+	for k := range md.complexes {
+		if t, ok := in.partnerLog(md, k, r); ok {
+			sum += math.Exp(t - top)
+		}
+	}
+	in.y[r] = math.Log(in.total[r]) - top - math.Log(sum)
+}
+
+// partnerLog returns ln(K'_k α_k · partner) for complex k if it is active
+// and involves slot r.
+func (in *innerSolver) partnerLog(md *model, k, r int) (float64, bool) {
+	c := &md.complexes[k]
 	if !c.active {
 		return 0, false
 	}
-	rm, rs := slots(md, c)
+	km, ks := slots(md, c)
 	switch r {
-	case rm:
-		return in.lnA[j] + in.y[rs], true
-	case rs:
-		return in.lnA[j] + in.y[rm], true
+	case km:
+		return in.lnA[k] + in.y[ks], true
+	case ks:
+		return in.lnA[k] + in.y[km], true
 	}
 	return 0, false
+}
+
+// pairRoot returns the free concentration x of the first partner from
+// x·(p + a·y) = c, y·(q + a·x) = d, i.e. the positive root of
+// a·p·x² + (p·q + a·(d − c))·x − c·q = 0, in the cancellation-free form
+// of the quadratic formula; hypot avoids overflow of the discriminant.
+func pairRoot(c, d, p, q, a float64) float64 {
+	if a >= 1 {
+		// Divided by a: p·x² + b·x − e = 0.
+		b := p*q/a + d - c
+		e := c * q / a
+		disc := math.Hypot(b, 2*math.Sqrt(p*e))
+		if b >= 0 {
+			return 2 * e / (b + disc)
+		}
+		return (disc - b) / (2 * p)
+	}
+	b := p*q + a*(d-c)
+	disc := math.Hypot(b, 2*math.Sqrt(a*p*c*q))
+	if b >= 0 {
+		return 2 * c * q / (b + disc)
+	}
+	return (disc - b) / (2 * a * p)
 }
 
 // solve finds the free metal and ligand concentrations for the fractions
@@ -253,18 +326,19 @@ func (in *innerSolver) solve(md *model) error {
 		for r := range in.y {
 			in.y[r] = math.Log(in.total[r])
 		}
-		in.scale(md)
+		in.pairSweep(md)
 		in.warm = true
 	}
-	res := 0.0
+	res, prev := 0.0, math.Inf(1)
 	for it := 0; it < maxInnerIter; it++ {
 		res = in.totals(md)
-		if res <= innerTol {
+		if res <= innerTol || (res <= innerFloorTol && res > prev/2) {
 			in.publish(md)
 			return nil
 		}
+		prev = res
 		if !in.newtonStep(md) {
-			in.scale(md)
+			in.pairSweep(md)
 		}
 	}
 	in.warm = false

@@ -43,16 +43,20 @@ func (e *ConvergenceError) Error() string {
 // UnreachableError reports a titration target that the titrant cannot
 // reach: a negative amount would be needed, or more than MaxTitrant mol/L.
 // MinPH and MaxPH bound the reachable range: the pH with no titrant and the
-// pH with MaxTitrant mol/L, in increasing order.
+// pH with MaxAmount mol/L, in increasing order.
 type UnreachableError struct {
 	Target, MinPH, MaxPH float64
 	Component            string
+	// MaxAmount is the amount (mol/L) at the far end of the range:
+	// MaxTitrant, or less when that much titrant would take the mixture
+	// beyond the model (ionic strength above 20 mol/L).
+	MaxAmount float64
 }
 
 // Error implements error.
 func (e *UnreachableError) Error() string {
 	return fmt.Sprintf("solver: %s cannot bring the mixture to pH %.3f: reachable range is pH %.3f to %.3f (0 to %g mol/L)",
-		e.Component, e.Target, e.MinPH, e.MaxPH, MaxTitrant)
+		e.Component, e.Target, e.MinPH, e.MaxPH, e.MaxAmount)
 }
 
 // RangeError reports a mixture outside what the model can represent, for

@@ -1,6 +1,7 @@
 package solver
 
 import (
+	"errors"
 	"math"
 	"slices"
 )
@@ -63,8 +64,9 @@ func (m Mixture) With(c Component, amount float64) Mixture {
 // balance → I of that solution} to self-consistency, then confirms with a
 // Solve. Otherwise (or if that check fails) it searches the amount in
 // [0, MaxTitrant] by bracketed regula falsi (Illinois variant) on pH.
-// A target that needs a negative amount or more than MaxTitrant gives an
-// *UnreachableError carrying the reachable range.
+// A target that needs a negative amount or more than MaxTitrant (less if
+// that much titrant would take the mixture beyond the model, see
+// RangeError) gives an *UnreachableError carrying the reachable range.
 func Titrate(m Mixture, t Component, targetPH float64) (*Titration, error) {
 	if !finite(targetPH) {
 		return nil, &InputError{"Target", -1, "target pH is not a finite number"}
@@ -169,18 +171,38 @@ func componentSlopes(md *model, t *Component) (charge, ionic float64) {
 	return charge, ionic
 }
 
-// titrateBracketed searches the amount in [0, MaxTitrant] for which the
+// maxFarEndHalvings bounds the search for a far end of the titration
+// range that the model can still solve (5 mol/L · 2^−30 ≈ 5 nmol/L).
+const maxFarEndHalvings = 30
+
+// farEnd solves m with the largest amount of t, starting at MaxTitrant
+// and halving while the result lies beyond the model (*RangeError: a
+// concentrated mixture plus 5 mol/L of titrant can exceed I = 20 mol/L).
+func farEnd(m Mixture, t Component) (float64, *Equilibrium, error) {
+	amount := MaxTitrant
+	for range maxFarEndHalvings {
+		eq, err := Solve(m.With(t, amount))
+		var re *RangeError
+		if !errors.As(err, &re) {
+			return amount, eq, err
+		}
+		amount /= 2
+	}
+	return 0, nil, &RangeError{Quantity: "titrant amount", Value: amount, Limit: MaxTitrant}
+}
+
+// titrateBracketed searches the amount in [0, far end] for which the
 // solved pH equals the target, by regula falsi with the Illinois
 // modification (guaranteed convergence on a sign change).
 func titrateBracketed(m Mixture, t Component, targetPH, ph0 float64) (*Titration, error) {
-	eqMax, err := Solve(m.With(t, MaxTitrant))
+	hi, eqMax, err := farEnd(m, t)
 	if err != nil {
 		return nil, err
 	}
-	lo, hi := 0.0, MaxTitrant
+	lo := 0.0
 	flo, fhi := ph0-targetPH, eqMax.PH-targetPH
 	if flo*fhi > 0 {
-		return nil, rangeError(t, targetPH, ph0, eqMax.PH)
+		return nil, rangeError(t, targetPH, ph0, eqMax.PH, hi)
 	}
 	side := 0
 	for it := 0; it < maxTitrateIter; it++ {
@@ -215,13 +237,13 @@ func titrateBracketed(m Mixture, t Component, targetPH, ph0 float64) (*Titration
 
 // unreachable builds the UnreachableError, solving the far end of the range.
 func unreachable(m Mixture, t Component, target, ph0 float64) error {
-	eq, err := Solve(m.With(t, MaxTitrant))
+	amount, eq, err := farEnd(m, t)
 	if err != nil {
 		return err
 	}
-	return rangeError(t, target, ph0, eq.PH)
+	return rangeError(t, target, ph0, eq.PH, amount)
 }
 
-func rangeError(t Component, target, ph0, phMax float64) error {
-	return &UnreachableError{Target: target, MinPH: math.Min(ph0, phMax), MaxPH: math.Max(ph0, phMax), Component: t.Name}
+func rangeError(t Component, target, ph0, phFar, amount float64) error {
+	return &UnreachableError{Target: target, MinPH: math.Min(ph0, phFar), MaxPH: math.Max(ph0, phFar), Component: t.Name, MaxAmount: amount}
 }
