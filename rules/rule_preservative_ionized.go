@@ -61,14 +61,15 @@ practice). The minimum setting overrides it for every preservative.`,
 				if frac >= need {
 					break
 				}
-				limit := ""
 				ok := func(ph float64) bool { return idealFractions(st.PKa, ph)[n] >= need }
-				if n > 0 {
-					if ph, found := crossing(eq.PH, -1, ok); found {
-						limit = fmt.Sprintf(", reached at pH %.2f or below", ph)
-					}
-				} else if ph, found := crossing(eq.PH, +1, ok); found {
-					limit = fmt.Sprintf(", reached at pH %.2f or above", ph)
+				limit := ""
+				down, okDown := crossing(eq.PH, -1, ok)
+				up, okUp := crossing(eq.PH, +1, ok)
+				switch {
+				case okDown && (!okUp || eq.PH-down <= up-eq.PH):
+					limit = fmt.Sprintf(", reached at pH %.2f or below", down)
+				case okUp:
+					limit = fmt.Sprintf(", reached at pH %.2f or above", up)
 				}
 				p.Report(linePos(l), "lower the pH, or use a preservative that works at this pH",
 					"%s: %.1f%% of %s is un-ionized (%s) at pH %.2f; it needs at least %.1f%%%s",

@@ -54,6 +54,7 @@ var commands = map[string]command{
 	"show":    {"detailed report of one recipe", (*App).show},
 	"catalog": {"list or explain catalog ingredients", (*App).catalog},
 	"schema":  {"print a JSON Schema: recipe, catalog or config", (*App).schema},
+	"rules":   {"list the rules, or explain one (phgate rules NAME)", (*App).rulesCmd},
 	"plot":    {"draw a chart of one recipe as SVG or PNG", (*App).plot},
 	"diff":    {"compare computed results between files, folders or git revisions", (*App).diff},
 }

@@ -43,23 +43,18 @@ func (t *Text) Write(w io.Writer, rep *Report) error {
 		for _, a := range r.Adjustments {
 			fmt.Fprintf(&b, "    q.s. %s to pH %g: %s\n", a.Use, a.TargetPH, AdjustAmount(a, r.ConcentrationUnit))
 		}
-		width := 0
-		for _, f := range r.Findings {
-			width = max(width, len(fmt.Sprintf("%d:%d", f.Line, f.Column)))
-		}
-		for _, f := range r.Findings {
-			pos := fmt.Sprintf("%d:%d", f.Line, f.Column)
-			sev := f.Severity.String()
-			if f.Waived != "" {
-				fmt.Fprintf(&b, "    %-*s  %-7s  %s  %s %s\n", width, pos, "waived", f.Rule, f.Message, dim("("+f.Waived+")"))
-				continue
-			}
-			fmt.Fprintf(&b, "    %-*s  %s  %s  %s\n", width, pos, sevPaint[f.Severity](fmt.Sprintf("%-7s", sev)), bold(f.Rule), f.Message)
-			if f.Fix != "" {
-				fmt.Fprintf(&b, "    %-*s           %s\n", width, "", dim("→ "+f.Fix))
-			}
-		}
+		t.findings(&b, r.Findings)
 		b.WriteString("\n")
+	}
+	for i := 0; i < len(rep.Findings); {
+		j := i
+		for j < len(rep.Findings) && rep.Findings[j].Path == rep.Findings[i].Path {
+			j++
+		}
+		fmt.Fprintf(&b, "%s  %s\n", bold(rep.Findings[i].Path), dim("project settings"))
+		t.findings(&b, rep.Findings[i:j])
+		b.WriteString("\n")
+		i = j
 	}
 	if len(rep.Problems) > 0 {
 		fmt.Fprintf(&b, "%s\n", bold("could not check:"))
@@ -87,6 +82,33 @@ func (t *Text) Write(w io.Writer, rep *Report) error {
 	fmt.Fprintf(&b, "%s  %s\n", verdict, strings.Join(parts, " · "))
 	_, err := io.WriteString(w, b.String())
 	return err
+}
+
+// findings writes findings aligned on their line:column, with the fix
+// hint under each and waived findings dimmed with their reason.
+func (t *Text) findings(b *strings.Builder, fs []rules.Finding) {
+	bold := t.paint(color.Bold)
+	dim := t.paint(color.Faint)
+	sevPaint := map[rules.Severity]func(a ...any) string{
+		rules.Error:   t.paint(color.FgHiRed, color.Bold),
+		rules.Warning: t.paint(color.FgYellow),
+		rules.Info:    t.paint(color.FgCyan),
+	}
+	width := 0
+	for _, f := range fs {
+		width = max(width, len(fmt.Sprintf("%d:%d", f.Line, f.Column)))
+	}
+	for _, f := range fs {
+		pos := fmt.Sprintf("%d:%d", f.Line, f.Column)
+		if f.Waived != "" {
+			fmt.Fprintf(b, "    %-*s  %-7s  %s  %s %s\n", width, pos, "waived", f.Rule, f.Message, dim("(waived: "+f.Waived+")"))
+			continue
+		}
+		fmt.Fprintf(b, "    %-*s  %s  %s  %s\n", width, pos, sevPaint[f.Severity](fmt.Sprintf("%-7s", f.Severity.String())), bold(f.Rule), f.Message)
+		if f.Fix != "" {
+			fmt.Fprintf(b, "    %-*s           %s\n", width, "", dim("→ "+f.Fix))
+		}
+	}
 }
 
 // Headline is the one-line summary of a recipe's chemistry.
