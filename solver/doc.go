@@ -72,9 +72,12 @@
 //
 // the stationarity conditions of a strictly convex function of ln[M] and
 // ln L. They are solved by Newton's method in log space with a
-// backtracking line search on that function (exact block minimisation,
-// "alternating scaling", when a step is refused), which converges from
-// any start; at most 200 steps, mass balances closed to 1e-13 relative.
+// backtracking line search on that function, which converges from any
+// start; when the Newton matrix is numerically singular (strong binding
+// with both partners nearly used up) the function is minimised exactly
+// over each complex's metal–ligand pair instead (a closed-form
+// quadratic). At most 200 steps; mass balances closed to 1e-13 relative
+// (1e-11 if rounding stalls the iteration).
 // Equilibrium.Strong[i].Free is the free metal; a ligand system's
 // Fractions are over its free (uncomplexed) part, and its Conc are the
 // free concentrations of each state.
