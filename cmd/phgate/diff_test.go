@@ -5,6 +5,7 @@ import (
 	"crypto/sha256"
 	"encoding/hex"
 	"encoding/json"
+	"errors"
 	"flag"
 	"os"
 	"os/exec"
@@ -614,6 +615,56 @@ func TestDiffFilesAndFolders(t *testing.T) {
 				d := decodeDiff(t, out)
 				if len(d.Changes) != 1 || d.Changes[0].Recipe != "drink-b" || d.Changes[0].DeltaPH == nil || *d.Changes[0].DeltaPH == 0 {
 					t.Errorf("want drink-a paired with drink-b and a pH shift, got %s", out)
+				}
+			}
+		})
+	}
+}
+
+// TestDiffBinary builds phgate and runs it inside the repository, from a
+// sub-folder, as a user or a CI job would: PATH arguments are relative to
+// the current folder and the repository is found from it.
+func TestDiffBinary(t *testing.T) {
+	if testing.Short() {
+		t.Skip("builds the binary")
+	}
+	dir := diffRepo(t)
+	bin := filepath.Join(t.TempDir(), "phgate")
+	if out, err := exec.Command("go", "build", "-o", bin, ".").CombinedOutput(); err != nil {
+		t.Fatalf("go build: %v\n%s", err, out)
+	}
+	tests := []struct {
+		name, dir string
+		args      []string
+		code      int
+		want      []string
+	}{
+		{"from a sub-folder", "recipes", []string{"diff", "--base", "HEAD~1", "--head", "HEAD", "--format", "markdown", "working.yaml"}, ExitOK,
+			[]string{"| `working-buffer` | modified | 7.01 | 7.07 | +0.0584 |", "moved by a change to stock recipe `phos-stock`"}},
+		{"whole repository with a gate", ".", []string{"diff", "--base", "HEAD~1", "--max-ph-shift", "0.1"}, ExitFindings,
+			[]string{"gate crossed: edited-one: pH moved by -3.291", "house-rinse"}},
+		{"refused revision", ".", []string{"diff", "--base", "-p"}, ExitProblem, nil},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			cmd := exec.Command(bin, tc.args...)
+			cmd.Dir = filepath.Join(dir, tc.dir)
+			var out, errb bytes.Buffer
+			cmd.Stdout, cmd.Stderr = &out, &errb
+			err := cmd.Run()
+			code := 0
+			var ee *exec.ExitError
+			if errors.As(err, &ee) {
+				code = ee.ExitCode()
+			} else if err != nil {
+				t.Fatal(err)
+			}
+			if code != tc.code {
+				t.Fatalf("exit %d, want %d\n%s%s", code, tc.code, out.String(), errb.String())
+			}
+			for _, w := range tc.want {
+				if !strings.Contains(out.String(), w) {
+					t.Errorf("output lacks %q:\n%s", w, out.String())
 				}
 			}
 		})
