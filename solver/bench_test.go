@@ -47,3 +47,17 @@ func BenchmarkTitrate(b *testing.B) {
 		}
 	}
 }
+
+// TestEvalChargeAllocatesNothing guards the performance rule that the
+// inner loop (one charge-balance evaluation, complexation included)
+// allocates nothing.
+func TestEvalChargeAllocatesNothing(t *testing.T) {
+	m := benchMixture()
+	m.Complexes = []Complex{{Name: "CaCit-", Metal: 3, Ligand: Ref{Kind: RefSpecies, Index: 3, Species: 3}, LogK: 4.85}}
+	md := newModel(&m)
+	md.setIonicStrength(0.15)
+	x := md.xOfPH(7.2)
+	if n := testing.AllocsPerRun(100, func() { _, _, _ = md.evalCharge(x) }); n != 0 {
+		t.Errorf("evalCharge allocates %g times per call", n)
+	}
+}

@@ -85,14 +85,13 @@ func Titrate(m Mixture, t Component, targetPH float64) (*Titration, error) {
 		return &Titration{Amount: 0, Equilibrium: eq0}, nil
 	}
 	if !touchesComplex(&m, &t) {
+		// A failure of the fast path is not final: the bracketed search
+		// below needs nothing from it.
 		amount, ok, err := titrateLinear(&m, &t, targetPH)
-		if err != nil {
-			return nil, err
-		}
-		if amount < 0 || amount > MaxTitrant {
+		if err == nil && (amount < 0 || amount > MaxTitrant) {
 			return nil, unreachable(m, t, targetPH, eq0.PH)
 		}
-		if ok {
+		if err == nil && ok {
 			eq, err := Solve(m.With(t, amount))
 			if err == nil && math.Abs(eq.PH-targetPH) <= titratePHTol {
 				return &Titration{Amount: amount, Equilibrium: eq}, nil
@@ -126,11 +125,10 @@ func touchesComplex(m *Mixture, t *Component) bool {
 // ok is false when the titrant does not change the charge balance.
 func titrateLinear(m *Mixture, t *Component, targetPH float64) (amount float64, ok bool, err error) {
 	md := newModel(m)
-	x := 0.0
 	var slope, ionicSlope float64
 	solveAt := func(ionic float64) (float64, error) {
 		md.setIonicStrength(ionic)
-		x = md.xOfPH(targetPH)
+		x := md.xOfPH(targetPH)
 		f, _, err := md.evalCharge(x)
 		if err != nil {
 			return 0, err
