@@ -24,10 +24,10 @@ func diffRules(p *project.Project) (review.Rules, diag.Problems) {
 
 func (a *App) diff(args []string) int {
 	fs := a.flags("diff", "OLD NEW | --base REV [--head REV] [PATH...]")
-	base := fs.String("base", "", "git revision for the old side (compare inside a git repository)")
-	head := fs.String("head", "", "git revision for the new side (default: the working tree)")
-	repo := fs.String("repo", ".", "with --base: the folder inside the git repository to work from; PATH arguments are relative to it")
-	format := fs.String("format", "text", "output format: text, json or markdown")
+	base := fs.String("base", "", "git revision `REV` for the old side (compare inside a git repository)")
+	head := fs.String("head", "", "git revision `REV` for the new side (default: the working tree)")
+	repo := fs.String("repo", ".", "with --base: work from `DIR`, a folder inside the git repository; PATH arguments are relative to it")
+	format := fs.String("format", "text", "output `format`: text, json or markdown")
 	all := fs.Bool("all", false, "list unchanged recipes too")
 	var maxShift *float64
 	fs.Func("max-ph-shift", "exit 1 when any recipe's |ΔpH| exceeds `X`", func(s string) error {
@@ -38,7 +38,7 @@ func (a *App) diff(args []string) int {
 		maxShift = &x
 		return nil
 	})
-	failOnNew := fs.String("fail-on-new", "never", "exit 1 when a finding of this severity or worse appears: error, warning or never")
+	failOnNew := fs.String("fail-on-new", "never", "exit 1 when a finding of this `severity` or worse appears: error, warning or never")
 	paths, err := parse(fs, args)
 	if err != nil {
 		if isHelp(err) {

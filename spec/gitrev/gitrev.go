@@ -63,6 +63,10 @@ func Open(dir string) (*Repo, error) {
 	r := &Repo{Dir: dir, Git: "git"}
 	out, err := r.run(nil, "rev-parse", "--show-toplevel")
 	if err != nil {
+		var ee *exitError
+		if errors.As(err, &ee) {
+			return nil, fmt.Errorf("%s is not inside a git working tree (git: %s)", dir, ee.stderr)
+		}
 		return nil, err
 	}
 	top := strings.TrimRight(string(out), "\r\n")
