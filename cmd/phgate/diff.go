@@ -99,11 +99,13 @@ func (a *App) diff(args []string) int {
 	return ExitOK
 }
 
-// newSideUnsolved reports a recipe that cannot be solved in the new
-// version: like `check`, that is a problem, not a finding.
+// newSideUnsolved reports a recipe the change touches that cannot be
+// solved in the new version: like `check`, that is a problem, not a
+// finding. A recipe broken the same way on both sides is listed with
+// --all but does not fail the comparison.
 func newSideUnsolved(d *review.Diff) bool {
 	for _, c := range d.Changes {
-		if c.After != nil && len(c.After.Problems) > 0 {
+		if c.Status != review.Unchanged && c.After != nil && len(c.After.Problems) > 0 {
 			return true
 		}
 	}
