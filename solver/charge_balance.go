@@ -43,7 +43,7 @@ func (md *model) evalCharge(x float64) (f, df float64, err error) {
 		s.eval(x, s.slot >= 0)
 	}
 	if md.inner.p > 0 {
-		if err := md.inner.solve(md); err != nil {
+		if err := md.inner.solve(md, x); err != nil {
 			return 0, 0, err
 		}
 	}
@@ -71,7 +71,7 @@ func (md *model) evalCharge(x float64) (f, df float64, err error) {
 		}
 	}
 	if md.inner.p > 0 {
-		df -= md.complexCorrection()
+		df -= md.complexCorrection(x)
 	}
 	md.df = df
 	return f, df, nil
@@ -80,8 +80,9 @@ func (md *model) evalCharge(x float64) (f, df float64, err error) {
 // complexCorrection returns wᵀ·∂T/∂x with J w = ∂F/∂y: the part of dF/dx
 // that comes from the free metal and ligand concentrations adjusting to
 // keep their mass balances (implicit function theorem). It leaves w in
-// md.inner.w, where w_r = ∂F/∂(total of slot r) at fixed x.
-func (md *model) complexCorrection() float64 {
+// md.inner.w, where w_r = ∂F/∂(total of slot r) at fixed x, and the
+// tangent dy/dx = −J⁻¹·∂T/∂x for the next warm start.
+func (md *model) complexCorrection(x float64) float64 {
 	in := &md.inner
 	for r := 0; r < in.p; r++ {
 		in.dTdx[r] = 0
@@ -114,6 +115,11 @@ func (md *model) complexCorrection() float64 {
 	}
 	copy(in.w, in.dFdy)
 	in.cholSolve(in.w)
+	for r, v := range in.dTdx {
+		in.dydx[r] = -v
+	}
+	in.cholSolve(in.dydx)
+	in.xLast, in.havePredic = x, true
 	corr := 0.0
 	for r, w := range in.w {
 		corr += w * in.dTdx[r]

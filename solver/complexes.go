@@ -66,6 +66,11 @@ type innerSolver struct {
 	// Cholesky factor, and the derivative vectors of the charge balance.
 	tot, g, d, yTry, jac, chol []float64
 	dFdy, dTdx, w              []float64
+	// dydx = dy/dx at xLast (from the last derivative evaluation) predicts
+	// the start of the next solve when x moves: y ≈ y + dydx·(x − xLast).
+	dydx       []float64
+	xLast      float64
+	havePredic bool
 }
 
 func (in *innerSolver) init(md *model) {
@@ -93,10 +98,10 @@ func (in *innerSolver) init(md *model) {
 		return
 	}
 	p := in.p
-	buf := make([]float64, 8*p+2*p*p+len(md.complexes))
+	buf := make([]float64, 9*p+2*p*p+len(md.complexes))
 	take := func(n int) []float64 { s := buf[:n:n]; buf = buf[n:]; return s }
 	in.y, in.tot, in.g, in.d, in.yTry = take(p), take(p), take(p), take(p), take(p)
-	in.dFdy, in.dTdx, in.w = take(p), take(p), take(p)
+	in.dFdy, in.dTdx, in.w, in.dydx = take(p), take(p), take(p), take(p)
 	in.jac, in.chol = take(p*p), take(p*p)
 	in.lnA = take(len(md.complexes))
 }
@@ -313,22 +318,28 @@ func pairRoot(c, d, p, q, a float64) float64 {
 }
 
 // solve finds the free metal and ligand concentrations for the fractions
-// currently held by the systems (evaluated at one [H+]), warm-starting
-// from the previous solution.
-func (in *innerSolver) solve(md *model) error {
+// currently held by the systems (evaluated at x = ln[H+]), warm-starting
+// from the previous solution moved along its tangent.
+func (in *innerSolver) solve(md *model, x float64) error {
 	for j := range md.complexes {
 		c := &md.complexes[j]
 		if c.active {
 			in.lnA[j] = c.lnK + md.systems[c.sys].lnAlpha[c.state]
 		}
 	}
-	if !in.warm {
+	switch {
+	case !in.warm:
 		for r := range in.y {
 			in.y[r] = math.Log(in.total[r])
 		}
 		in.pairSweep(md)
 		in.warm = true
+	case in.havePredic:
+		for r := range in.y {
+			in.y[r] += in.dydx[r] * (x - in.xLast)
+		}
 	}
+	in.havePredic = false
 	res, prev := 0.0, math.Inf(1)
 	for it := 0; it < maxInnerIter; it++ {
 		res = in.totals(md)
