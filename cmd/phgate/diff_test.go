@@ -593,6 +593,18 @@ func TestDiffFilesAndFolders(t *testing.T) {
 		t.Errorf("changes %v, want %v", got, want)
 	}
 
+	t.Run("broken the same way on both sides", func(t *testing.T) {
+		a, b := filepath.Join(dir, "same-a"), filepath.Join(dir, "same-b")
+		for _, d := range []string{a, b} {
+			putFile(t, d, "broken.yaml", recipeYAML("drink-d", strings.Replace(body, "citric-acid-monohydrate", "citric-acid-monohydrat", 1)))
+			putFile(t, d, "fine.yaml", recipeYAML("drink-e", body))
+		}
+		code, out, errs := runDiff("diff", "--format", "json", a, b)
+		if d := decodeDiff(t, out); code != ExitOK || len(d.Changes) != 0 || d.Unchanged != 2 {
+			t.Errorf("exit %d, %d changes, %d unchanged; want 0, 0, 2\n%s%s", code, len(d.Changes), d.Unchanged, out, errs)
+		}
+	})
+
 	tests := []struct {
 		name string
 		args []string
