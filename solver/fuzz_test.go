@@ -8,7 +8,7 @@ import (
 
 // FuzzSolve builds a mixture of two acid–base systems, three strong ions
 // and one complex from raw numbers and checks the properties every
-// solution must have. Its seed corpus (testdata/fuzz/FuzzSolve) runs as
+// solution must have. Its corpus (testdata/fuzz/FuzzSolve) runs as
 // part of the ordinary tests.
 func FuzzSolve(f *testing.F) {
 	f.Add(0.05, 7.198, 5.0, int8(0), 0.075, 0.0, 0.0, 25.0, false, 4.85)

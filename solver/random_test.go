@@ -43,7 +43,7 @@ func randomMixture(r *rand.Rand) Mixture {
 }
 
 // TestRandomMixtures checks the invariants on reproducible random
-// mixtures (fixed seed): no error other than a *RangeError (I > 20 mol/L),
+// mixtures (fixed generator state): no error other than a *RangeError (I > 20 mol/L),
 // balances closed, strong acid lowers pH, own-pH titration gives 0, and a
 // titration with strong base hits its target or reports a range that
 // excludes it.
