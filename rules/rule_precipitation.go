@@ -11,7 +11,7 @@ import (
 // precipitationSettings are the thresholds of precipitation.
 type precipitationSettings struct {
 	Margin   float64 `yaml:"margin" unit:"log units" doc:"warn when a declared salt's saturation index is above minus this margin"`
-	Fraction float64 `yaml:"solubility-fraction" unit:"fraction" doc:"warn when a weak acid or base is above this fraction of its solubility at the computed pH"`
+	Fraction float64 `yaml:"solubility-fraction" doc:"warn when a weak acid or base is above this fraction of its solubility at the computed pH"`
 }
 
 // clearAcidPH and clearBasePH bound the search for the pH at which a

@@ -4,7 +4,7 @@ import "fmt"
 
 // preservativeSettings are the thresholds of preservative-ionized.
 type preservativeSettings struct {
-	Minimum float64 `yaml:"minimum" unit:"fraction" doc:"un-ionized fraction every weak-acid preservative needs; 0 uses each catalog entry's own value"`
+	Minimum float64 `yaml:"minimum" unit:"fraction (0: each preservative's catalog value)" doc:"un-ionized fraction every weak-acid preservative needs; 0 uses each catalog entry's own value"`
 }
 
 var preservativeIonized = &Rule{
