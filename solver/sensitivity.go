@@ -38,6 +38,16 @@ func Sensitivity(m Mixture, eq *Equilibrium, c Component) (float64, error) {
 	if err != nil {
 		return 0, err
 	}
+	out := md.chargeSlope(&c) / (math.Ln10 * df)
+	if !finite(out) {
+		return 0, fmt.Errorf("solver: sensitivity to %s is not finite", c.Name)
+	}
+	return out, nil
+}
+
+// chargeSlope is ∂F/∂a, the charge component c brings per mol/L at fixed
+// [H+] and γ, at the model's current speciation.
+func (md *model) chargeSlope(c *Component) float64 {
 	fa := 0.0
 	for _, s := range c.StrongPerUnit {
 		fa += s.Count * md.strongSlope(s.Index)
@@ -45,11 +55,7 @@ func Sensitivity(m Mixture, eq *Equilibrium, c Component) (float64, error) {
 	for _, s := range c.SystemPerUnit {
 		fa += s.Count * md.systemSlope(s.Index)
 	}
-	out := fa / (math.Ln10 * df)
-	if !finite(out) {
-		return 0, fmt.Errorf("solver: sensitivity to %s is not finite", c.Name)
-	}
-	return out, nil
+	return fa
 }
 
 // strongSlope is ∂F/∂(total of strong ion i) at fixed [H+] and γ, at the

@@ -133,7 +133,7 @@ func titrateLinear(m *Mixture, t *Component, targetPH float64) (amount float64, 
 		if err != nil {
 			return 0, err
 		}
-		slope, ionicSlope = componentSlopes(md, t)
+		slope, ionicSlope = md.chargeSlope(t), ionicSlopeOf(md, t)
 		if slope == 0 {
 			return 0, nil
 		}
@@ -148,12 +148,12 @@ func titrateLinear(m *Mixture, t *Component, targetPH float64) (amount float64, 
 	return amount, slope != 0, err
 }
 
-// componentSlopes returns ∂F/∂amount and ∂I/∂amount of component t at the
-// model's current speciation, for shares that form no complex.
-func componentSlopes(md *model, t *Component) (charge, ionic float64) {
+// ionicSlopeOf returns ∂I/∂amount of component t at the model's current
+// speciation, for shares that form no complex.
+func ionicSlopeOf(md *model, t *Component) float64 {
+	ionic := 0.0
 	for _, s := range t.StrongPerUnit {
 		z := float64(md.strong[s.Index].charge)
-		charge += s.Count * z
 		ionic += s.Count * z * z / 2
 	}
 	for _, s := range t.SystemPerUnit {
@@ -163,10 +163,9 @@ func componentSlopes(md *model, t *Component) (charge, ionic float64) {
 			z := float64(sm.top - k)
 			q += a * z * z
 		}
-		charge += s.Count * (float64(sm.top) - sm.kbar)
 		ionic += s.Count * q / 2
 	}
-	return charge, ionic
+	return ionic
 }
 
 // maxFarEndHalvings bounds the search for a far end of the titration
