@@ -37,12 +37,7 @@ func (md *model) ionicStrength(x float64) float64 {
 		if s.free == 0 {
 			continue
 		}
-		q := 0.0
-		for k, a := range s.alpha {
-			z := float64(s.top - k)
-			q += z * z * a
-		}
-		sum += s.free * q
+		sum += s.free * s.meanZ2()
 	}
 	for j := range md.complexes {
 		c := &md.complexes[j]
@@ -224,4 +219,14 @@ func (md *model) ionicDerivatives(x float64) (fL, phiX, phiL float64) {
 		phiL += sm.free * (z2c - z2*cbar) / 2
 	}
 	return fL, phiX, phiL
+}
+
+// meanZ2 returns Σ α_k z_k², the mean squared charge of the free system.
+func (s *sysModel) meanZ2() float64 {
+	q := 0.0
+	for k, a := range s.alpha {
+		z := float64(s.top - k)
+		q += a * z * z
+	}
+	return q
 }

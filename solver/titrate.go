@@ -157,13 +157,7 @@ func ionicSlopeOf(md *model, t *Component) float64 {
 		ionic += s.Count * z * z / 2
 	}
 	for _, s := range t.SystemPerUnit {
-		sm := &md.systems[s.Index]
-		q := 0.0
-		for k, a := range sm.alpha {
-			z := float64(sm.top - k)
-			q += a * z * z
-		}
-		ionic += s.Count * q / 2
+		ionic += s.Count * md.systems[s.Index].meanZ2() / 2
 	}
 	return ionic
 }
