@@ -5,6 +5,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 	"sync"
 
@@ -157,7 +158,18 @@ func (l *loader) quantity(ptr, what string, allowed ...units.Kind) *Amount {
 				p.Column++
 			}
 		}
-		l.add(p, fmt.Sprintf("%s in %s", err.Error(), what))
+		msg := fmt.Sprintf("%s in %s", err.Error(), what)
+		if ue != nil {
+			msg = fmt.Sprintf("%s in %s", ue.Message, what)
+			if ue.Suggestion != "" {
+				alts := strings.Split(ue.Suggestion, " or ")
+				for i := range alts {
+					alts[i] = strconv.Quote(alts[i])
+				}
+				msg += "; did you mean " + strings.Join(alts, " or ") + "?"
+			}
+		}
+		l.add(p, msg)
 		return nil
 	}
 	return &Amount{Quantity: q, Raw: n.Value, Pos: Pos{n.Line, n.Column}}
