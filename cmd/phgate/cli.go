@@ -56,6 +56,7 @@ var commands = map[string]command{
 	"schema":  {"print a JSON Schema: recipe, catalog or config", (*App).schema},
 	"rules":   {"list the rules, or explain one (phgate rules NAME)", (*App).rulesCmd},
 	"plot":    {"draw a chart of one recipe as SVG or PNG", (*App).plot},
+	"report":  {"self-contained HTML report with tables, findings and charts", (*App).report},
 	"diff":    {"compare computed results between files, folders or git revisions", (*App).diff},
 }
 

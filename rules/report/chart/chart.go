@@ -58,6 +58,9 @@ type Chart struct {
 	Recipe string
 	// Title and Subtitle head the figure.
 	Title, Subtitle string
+	// MaxLegendSeries caps the series listed in the legend: when a chart
+	// has more curves, only its panels' direct labels name them (0: no cap).
+	MaxLegendSeries int
 	// Panels are drawn in a grid, left to right, top to bottom.
 	Panels []Panel
 	// Titration holds the raw sweeps of a Titration chart (nil otherwise),
@@ -97,6 +100,9 @@ type Panel struct {
 	Marks  []Mark
 	// Note is printed in the middle of an empty panel.
 	Note string
+	// LabelCurves writes each series' label at the curve's highest point,
+	// for panels whose series would crowd a legend.
+	LabelCurves bool
 }
 
 // Series is one curve.

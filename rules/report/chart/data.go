@@ -341,6 +341,10 @@ func pkaRefs(res *evaluate.Result, lo, hi float64) []Ref {
 	return out
 }
 
+// maxLegendSpecies: a species chart with more curves than this names them
+// only on the curves, so the legend does not crowd out the panels.
+const maxLegendSpecies = 8
+
 // buildSpecies draws one panel per acid–base system: the fraction of each
 // protonation state from pH 0 to 14 (solver.SpeciesCurve: thermodynamic
 // pKa at the nominal temperature, ideal solution).
@@ -355,8 +359,8 @@ func buildSpecies(res *evaluate.Result, opt Options) (*Chart, error) {
 		if fr == nil {
 			return nil, fmt.Errorf("species of %s: the system or temperature is not valid", sys.Name)
 		}
-		p := Panel{Title: fmt.Sprintf("%s, %.3g mmol/%s", sys.Name, sys.Total*1000, concUnit(res)),
-			X: Axis{Label: "pH", Min: 0, Max: 14}, Y: Axis{Label: "fraction", Min: 0, Max: 1}}
+		p := Panel{Title: fmt.Sprintf("%s · %.3g mmol/%s", sys.Name, sys.Total*1000, concUnit(res)),
+			X: Axis{Label: "pH", Min: 0, Max: 14}, Y: Axis{Label: "fraction", Min: 0, Max: 1}, LabelCurves: true}
 		names := res.Equilibrium.Systems[i].Species
 		for k := range names {
 			y := make([]float64, len(phs))
@@ -373,7 +377,7 @@ func buildSpecies(res *evaluate.Result, opt Options) (*Chart, error) {
 		panels = []Panel{{X: Axis{Label: "pH", Min: 0, Max: 14}, Y: Axis{Label: "fraction", Min: 0, Max: 1},
 			Note: "no acid–base systems in this recipe"}}
 	}
-	return &Chart{Kind: Species, Recipe: r.ID.Value, Title: r.ID.Value + " · protonation states",
+	return &Chart{Kind: Species, Recipe: r.ID.Value, Title: r.ID.Value + " · protonation states", MaxLegendSeries: maxLegendSpecies,
 		Subtitle: fmt.Sprintf("fraction of each system in each state · pKa at %g °C, ideal solution", t), Panels: panels}, nil
 }
 

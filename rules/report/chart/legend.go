@@ -37,9 +37,15 @@ func (c *Chart) legend() []legendEntry {
 			out = append(out, e)
 		}
 	}
+	n := 0
 	for _, p := range c.Panels {
-		for k, s := range p.Series {
-			add(legendEntry{text: s.Label, kind: entrySeries, k: k})
+		n += len(p.Series)
+	}
+	if c.MaxLegendSeries == 0 || n <= c.MaxLegendSeries {
+		for _, p := range c.Panels {
+			for k, s := range p.Series {
+				add(legendEntry{text: s.Label, kind: entrySeries, k: k})
+			}
 		}
 	}
 	for _, p := range c.Panels {

@@ -237,8 +237,8 @@ func drawPanel(tile draw.Canvas, p *Panel, xLabel, yLabel bool) {
 	pl := plot.New()
 	pl.BackgroundColor = nil
 	if p.Title != "" {
-		pl.Title.Text = p.Title
 		pl.Title.TextStyle = textStyle(boldFont, panelSize, inkColor)
+		pl.Title.Text = fitText(pl.Title.TextStyle, p.Title, tile.Max.X-tile.Min.X-4)
 		pl.Title.TextStyle.XAlign = draw.XCenter
 		pl.Title.TextStyle.YAlign = draw.YTop
 		pl.Title.Padding = 3
@@ -267,8 +267,9 @@ func drawPanel(tile draw.Canvas, p *Panel, xLabel, yLabel bool) {
 		tile.FillText(ts, vg.Point{X: tile.Min.X, Y: (tile.Min.Y + tile.Max.Y) / 2}, p.Y.Label)
 		tile.Min.X += ts.Height(p.Y.Label) + 3
 	}
-	pl.X.Tick.Marker = niceTicks{alt: p.X.Alt}
-	pl.Y.Tick.Marker = niceTicks{}
+	// About one labelled tick per 40 pt of axis, 3 to 7 of them.
+	pl.X.Tick.Marker = niceTicks{alt: p.X.Alt, most: min(max(int((tile.Max.X-tile.Min.X)/40), 3), 7)}
+	pl.Y.Tick.Marker = niceTicks{most: min(max(int((tile.Max.Y-tile.Min.Y)/40), 3), 7)}
 	if p.Y.Log {
 		pl.Y.Scale = plot.LogScale{}
 		pl.Y.Tick.Marker = plot.LogTicks{Prec: -1}
@@ -296,7 +297,12 @@ func drawPanel(tile draw.Canvas, p *Panel, xLabel, yLabel bool) {
 			continue
 		}
 		ln := &plotter.Line{XYs: xys, LineStyle: seriesLine(k)}
-		pl.Add(ln, markers(xys, k, len(p.Series), p.Y))
+		// About one marker per 60 pt of panel width, 3 to 6 per curve.
+		n := min(max(int((tile.Max.X-tile.Min.X)/60), 3), 6)
+		pl.Add(ln, markers(xys, k, len(p.Series), n, p.Y))
+	}
+	if p.LabelCurves {
+		pl.Add(curveLabels{p.Series})
 	}
 	for _, m := range p.Marks {
 		pl.Add(markPlotter{m})
@@ -314,17 +320,14 @@ func drawPanel(tile draw.Canvas, p *Panel, xLabel, yLabel bool) {
 	pl.Draw(tile)
 }
 
-// markersPerSeries is how many markers sit along each curve; series
-// offset theirs so markers of different curves do not stack.
-const markersPerSeries = 6
-
-// markers places the k-th of n series' markers. Points outside a fixed
+// markers places count markers along the k-th of n series, offset so
+// markers of different curves do not stack. Points outside a fixed
 // y range are left out: gonum/plot pads the axes to keep every marker in
 // view, which would squeeze the panel.
-func markers(xys plotter.XYs, k, n int, y Axis) *plotter.Scatter {
+func markers(xys plotter.XYs, k, n, count int, y Axis) *plotter.Scatter {
 	var pts plotter.XYs
-	for j := 0; j < markersPerSeries; j++ {
-		f := (float64(j) + 0.5 + float64(k)/float64(max(n, 1))*0.8) / markersPerSeries
+	for j := 0; j < count; j++ {
+		f := (float64(j) + 0.5 + float64(k)/float64(max(n, 1))*0.8) / float64(count)
 		pt := xys[min(int(f*float64(len(xys)-1)), len(xys)-1)]
 		if y.Min < y.Max && (pt.Y < y.Min || pt.Y > y.Max) {
 			continue
@@ -334,41 +337,36 @@ func markers(xys plotter.XYs, k, n int, y Axis) *plotter.Scatter {
 	return &plotter.Scatter{XYs: pts, GlyphStyle: seriesGlyph(k)}
 }
 
-// niceTicks puts about tickTarget labelled ticks on round values (1, 2,
-// 2.5 or 5 times a power of ten) with a minor tick between each pair, and
-// writes the second unit under each label when alt is set.
-type niceTicks struct{ alt *AltScale }
-
-// tickTarget is the number of labelled ticks aimed for on an axis.
-const tickTarget = 6
+// niceTicks puts at most `most` intervals between labelled ticks on
+// round values (1, 2 or 5 times a power of ten), with a minor tick
+// between each pair, and writes the second unit under each label when
+// alt is set.
+type niceTicks struct {
+	alt  *AltScale
+	most int
+}
 
 // Ticks implements plot.Ticker.
 func (t niceTicks) Ticks(lo, hi float64) []plot.Tick {
 	if !(hi > lo) {
-		return []plot.Tick{{Value: lo, Label: strconv.FormatFloat(lo, 'g', 4, 64)}}
+		return []plot.Tick{{Value: lo, Label: formatTick(lo, 4)}}
 	}
-	raw := (hi - lo) / tickTarget
+	raw := (hi - lo) / float64(max(t.most, 1))
 	mag := math.Pow(10, math.Floor(math.Log10(raw)))
 	step := 10 * mag
-	for _, m := range []float64{1, 2, 2.5, 5} {
-		if m*mag >= raw {
+	for _, m := range []float64{1, 2, 5} {
+		if m*mag >= raw*(1-1e-9) {
 			step = m * mag
 			break
 		}
 	}
 	decimals := max(0, -int(math.Floor(math.Log10(step)+1e-9)))
-	if step/math.Pow(10, math.Floor(math.Log10(step)+1e-9)) == 2.5 {
-		decimals++
-	}
 	var ts []plot.Tick
 	for i := math.Ceil(lo/step - 1e-9); i*step <= hi+step*1e-9; i++ {
 		v := i * step
-		if v == 0 {
-			v = 0 // no "-0"
-		}
-		label := strconv.FormatFloat(v, 'f', decimals, 64)
+		label := formatTick(v, decimals)
 		if t.alt != nil {
-			label += "\n" + strconv.FormatFloat(v*t.alt.Factor, 'g', 4, 64) + " " + t.alt.Unit
+			label += "\n" + formatTick(v*t.alt.Factor, max(0, decimals)) + " " + t.alt.Unit
 		}
 		ts = append(ts, plot.Tick{Value: v, Label: label})
 		if m := v + step/2; m < hi {
@@ -376,6 +374,86 @@ func (t niceTicks) Ticks(lo, hi float64) []plot.Tick {
 		}
 	}
 	return ts
+}
+
+// formatTick writes v with the given decimals and a true minus sign.
+func formatTick(v float64, decimals int) string {
+	s := strconv.FormatFloat(v, 'f', decimals, 64)
+	if strings.Trim(s, "-0.") == "" {
+		s = strings.TrimPrefix(s, "-")
+	}
+	return strings.Replace(s, "-", "−", 1)
+}
+
+// fitText shortens txt to width w: first to the part before " · ", then
+// by cutting characters and adding an ellipsis.
+func fitText(ts text.Style, txt string, w vg.Length) string {
+	if ts.Width(txt) <= w {
+		return txt
+	}
+	if head, _, ok := strings.Cut(txt, " · "); ok {
+		txt = head
+		if ts.Width(txt) <= w {
+			return txt
+		}
+	}
+	r := []rune(txt)
+	for len(r) > 1 && ts.Width(string(r)+"…") > w {
+		r = r[:len(r)-1]
+	}
+	return string(r) + "…"
+}
+
+// curveLabels writes each series' label just under the curve's highest
+// point (inside the panel at either edge), moving a label down when it
+// would overlap one already placed.
+type curveLabels struct{ series []Series }
+
+// Plot implements plot.Plotter.
+func (cl curveLabels) Plot(c draw.Canvas, p *plot.Plot) {
+	tx, ty := p.Transforms(&c)
+	var placed []vg.Rectangle
+	for k, s := range cl.series {
+		top := 0
+		for i := range s.Y {
+			if s.Y[i] > s.Y[top] {
+				top = i
+			}
+		}
+		if len(s.Y) == 0 {
+			continue
+		}
+		pt := vg.Point{X: tx(s.X[top]), Y: ty(s.Y[top]) - 3}
+		ts := textStyle(sansFont, noteSize, seriesColors[k%len(seriesColors)])
+		ts.YAlign = draw.YTop
+		w, h := ts.Width(s.Label), ts.Height(s.Label)
+		switch {
+		case pt.X-w/2 < c.Min.X+2:
+			pt.X = c.Min.X + 2
+		case pt.X+w/2 > c.Max.X-2:
+			ts.XAlign, pt.X = draw.XRight, c.Max.X-2
+		default:
+			ts.XAlign = draw.XCenter
+		}
+		box := func() vg.Rectangle {
+			x0 := pt.X + vg.Length(ts.XAlign)*w
+			return vg.Rectangle{Min: vg.Point{X: x0, Y: pt.Y - h}, Max: vg.Point{X: x0 + w, Y: pt.Y}}
+		}
+		for tries := 0; tries < 4 && overlapsAny(box(), placed); tries++ {
+			pt.Y -= h + 2
+		}
+		placed = append(placed, box())
+		labelBox(c, ts, pt, s.Label)
+	}
+}
+
+func overlapsAny(r vg.Rectangle, rs []vg.Rectangle) bool {
+	for _, o := range rs {
+		if r.Min.X < o.Max.X && o.Min.X < r.Max.X && r.Min.Y < o.Max.Y && o.Min.Y < r.Max.Y {
+			return true
+		}
+	}
+	return false
 }
 
 type bandPlotter struct{ b Band }
@@ -420,6 +498,10 @@ func (bp bandPlotter) Plot(c draw.Canvas, p *plot.Plot) {
 	}
 }
 
+// minLabelledWidth: reference lines in narrower panels go without their
+// text (the legend still names them).
+const minLabelledWidth = 150
+
 type refPlotter struct{ r Ref }
 
 // Plot implements plot.Plotter.
@@ -428,6 +510,9 @@ func (rp refPlotter) Plot(c draw.Canvas, p *plot.Plot) {
 	r := rp.r
 	sty := refLine(r.Style)
 	ts := textStyle(sansFont, noteSize, sty.Color)
+	if c.Max.X-c.Min.X < minLabelledWidth {
+		r.Text = ""
+	}
 	if r.Style == Guide {
 		ts.Color = mutedColor
 	}
@@ -460,6 +545,9 @@ func (rp refPlotter) Plot(c draw.Canvas, p *plot.Plot) {
 // labelBox writes txt on a translucent white box so it stays readable
 // over curves and grid lines.
 func labelBox(c draw.Canvas, ts text.Style, pt vg.Point, txt string) {
+	if txt == "" {
+		return
+	}
 	w, h := ts.Width(txt), ts.Height(txt)
 	x0 := pt.X + vg.Length(ts.XAlign)*w
 	y0 := pt.Y + vg.Length(ts.YAlign)*h
