@@ -46,7 +46,7 @@ func (GitHub) Write(w io.Writer, rep *Report) error {
 	}
 	s := rep.Summary
 	fmt.Fprintf(&b, "phgate: %s, %s, %s, %d waived, %s\n", plural(s.Recipes, "recipe"), plural(s.Errors, "error"),
-		plural(s.Warnings, "warning"), s.Waived, plural(s.Problems, "unreadable file"))
+		plural(s.Warnings, "warning"), s.Waived, plural(s.Problems, "problem"))
 	_, err := io.WriteString(w, b.String())
 	return err
 }

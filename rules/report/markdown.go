@@ -29,7 +29,7 @@ func (Markdown) Write(w io.Writer, rep *Report) error {
 	if s.Waived > 0 {
 		parts = append(parts, fmt.Sprintf("%d waived", s.Waived))
 	}
-	parts = append(parts, plural(s.Problems, "unreadable file"))
+	parts = append(parts, plural(s.Problems, "problem"))
 	fmt.Fprintf(&b, "%s\n\n", strings.Join(parts, " · "))
 
 	if len(rep.Recipes) > 0 {

@@ -71,7 +71,7 @@ func (t *Text) Write(w io.Writer, rep *Report) error {
 	if s.Waived > 0 {
 		parts = append(parts, fmt.Sprintf("%d waived", s.Waived))
 	}
-	parts = append(parts, plural(s.Problems, "unreadable file"))
+	parts = append(parts, plural(s.Problems, "problem"))
 	if s.Skipped > 0 {
 		parts = append(parts, fmt.Sprintf("%d other YAML skipped", s.Skipped))
 	}

@@ -272,9 +272,16 @@ func (d *discovery) load(path string, named bool, p *Project) *File {
 	}
 	f.Recipe = r
 	if other, dup := p.byID[r.ID.Value]; dup && other != f {
+		// Both files are wrong until one is renamed: neither is checked,
+		// and each names the other.
 		f.Problems = append(f.Problems, diag.Problem{Path: path, Line: r.ID.Pos.Line, Column: r.ID.Pos.Column,
-			Message: fmt.Sprintf("recipe id %q is already used by %s", r.ID.Value, other.Path)})
+			Message: fmt.Sprintf("recipe id %q is also used by %s", r.ID.Value, other.Path)})
 		f.Recipe = nil
+		if other.Recipe != nil {
+			other.Problems = append(other.Problems, diag.Problem{Path: other.Path, Line: other.Recipe.ID.Pos.Line, Column: other.Recipe.ID.Pos.Column,
+				Message: fmt.Sprintf("recipe id %q is also used by %s", r.ID.Value, path)})
+			other.Recipe = nil
+		}
 		return f
 	}
 	p.byID[r.ID.Value] = f
@@ -340,6 +347,10 @@ func (p *Project) evaluateNow(f *File, chain []string) (*evaluate.Result, diag.P
 				msg += fmt.Sprintf("; did you mean %q?", s)
 			}
 			return nil, &diag.Problem{Path: f.Path, Line: at.Line, Column: at.Column, Message: msg}
+		}
+		if sf.Recipe == nil {
+			return nil, &diag.Problem{Path: f.Path, Line: at.Line, Column: at.Column,
+				Message: fmt.Sprintf("stock recipe %q cannot be used: %s", stockID, sf.Problems[0].Error())}
 		}
 		res, ps := p.evaluate(sf, chain)
 		if len(ps) > 0 {
