@@ -71,6 +71,8 @@ type innerSolver struct {
 	dydx       []float64
 	xLast      float64
 	havePredic bool
+	// buf backs all the vectors above (reused between solves).
+	buf []float64
 }
 
 func (in *innerSolver) init(md *model) {
@@ -98,7 +100,8 @@ func (in *innerSolver) init(md *model) {
 		return
 	}
 	p := in.p
-	buf := make([]float64, 9*p+2*p*p+len(md.complexes))
+	in.buf = resize(in.buf, 9*p+2*p*p+len(md.complexes))
+	buf := in.buf
 	take := func(n int) []float64 { s := buf[:n:n]; buf = buf[n:]; return s }
 	in.y, in.tot, in.g, in.d, in.yTry = take(p), take(p), take(p), take(p), take(p)
 	in.dFdy, in.dTdx, in.w, in.dydx = take(p), take(p), take(p), take(p)

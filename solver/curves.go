@@ -63,6 +63,7 @@ func CapacityCurve(m Mixture, phs []float64) ([]float64, error) {
 		return nil, err
 	}
 	md := newModel(&m)
+	defer md.release()
 	md.setIonicStrength(eq.IonicStrength)
 	out := make([]float64, len(phs))
 	for i, ph := range phs {

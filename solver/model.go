@@ -1,6 +1,9 @@
 package solver
 
-import "math"
+import (
+	"math"
+	"sync"
+)
 
 // model holds a Mixture converted once per Solve into the form the inner
 // loops need: temperature-corrected constants in natural logarithms, the
@@ -23,8 +26,10 @@ type model struct {
 	// fixedCharge is Σ z·c over the strong ions that form no complex.
 	fixedCharge float64
 	// df is dF/dx at the last evaluation of the charge balance.
-	df    float64
-	inner innerSolver
+	df float64
+	// stateBuf backs the per-state vectors of all systems.
+	stateBuf []float64
+	inner    innerSolver
 }
 
 // sysModel is one acid–base system. State k (0 = fully protonated) carries
@@ -74,14 +79,35 @@ type complexModel struct {
 	conc float64
 }
 
-// newModel converts a validated mixture.
+// modelPool recycles models (and their work space) between solves: a
+// Solve is a few microseconds, and without reuse allocation and garbage
+// collection would cost about as much as the numerics.
+var modelPool = sync.Pool{New: func() any { return new(model) }}
+
+// resize returns s with length n and zeroed elements, reusing its array
+// when large enough.
+func resize[T any](s []T, n int) []T {
+	if cap(s) < n {
+		return make([]T, n)
+	}
+	s = s[:n]
+	clear(s)
+	return s
+}
+
+// newModel converts a validated mixture. The caller must release the
+// model when done and keep no reference to its slices.
 func newModel(m *Mixture) *model {
-	md := &model{
-		systems:   make([]sysModel, len(m.Systems)),
-		strong:    make([]ionModel, len(m.Strong)),
-		complexes: make([]complexModel, len(m.Complexes)),
+	md := modelPool.Get().(*model)
+	old := *md
+	*md = model{
+		systems:   resize(old.systems, len(m.Systems)),
+		strong:    resize(old.strong, len(m.Strong)),
+		complexes: resize(old.complexes, len(m.Complexes)),
 		lnKwT:     -math.Ln10 * PKw(m.TemperatureC),
 		activity:  m.Activity,
+		stateBuf:  old.stateBuf,
+		inner:     innerSolver{buf: old.inner.buf, metal: old.inner.metal[:0], sys: old.inner.sys[:0], total: old.inner.total[:0]},
 	}
 	if m.Activity == Davies {
 		md.dhA = DebyeHuckelA(m.TemperatureC)
@@ -90,9 +116,9 @@ func newModel(m *Mixture) *model {
 	for i := range m.Systems {
 		states += len(m.Systems[i].PKa) + 1
 	}
-	// One backing array for all per-state vectors keeps the model to a
-	// handful of allocations.
-	buf := make([]float64, 5*states)
+	// One backing array for all per-state vectors.
+	md.stateBuf = resize(md.stateBuf, 5*states)
+	buf := md.stateBuf
 	for i := range m.Systems {
 		s := &m.Systems[i]
 		n := len(s.PKa) + 1
@@ -134,6 +160,9 @@ func newModel(m *Mixture) *model {
 	md.setIonicStrength(0)
 	return md
 }
+
+// release returns md to the pool.
+func (md *model) release() { modelPool.Put(md) }
 
 // systemPKa is pKa step k of s at tempC; without DeltaH the 25 °C value is
 // used unchanged (and Solve warns when that matters).

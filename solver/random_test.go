@@ -104,3 +104,37 @@ func TestRandomMixtures(t *testing.T) {
 		})
 	}
 }
+
+// TestConcurrentSolves solves random mixtures from several goroutines at
+// once (models are recycled through a pool) and requires the results of
+// the sequential run, bit for bit (the solver is deterministic).
+func TestConcurrentSolves(t *testing.T) {
+	r := rand.New(rand.NewPCG(3, 4))
+	ms := make([]Mixture, 64)
+	want := make([]float64, len(ms))
+	for i := range ms {
+		ms[i] = randomMixture(r)
+		if eq, err := Solve(ms[i]); err == nil {
+			want[i] = eq.PH
+		}
+	}
+	done := make(chan error)
+	for g := 0; g < 4; g++ {
+		go func() {
+			for k := range ms {
+				i := (k*7 + g) % len(ms)
+				eq, err := Solve(ms[i])
+				if err == nil && math.Float64bits(eq.PH) != math.Float64bits(want[i]) {
+					done <- fmt.Errorf("mixture %d: pH %v, sequential %v", i, eq.PH, want[i])
+					return
+				}
+			}
+			done <- nil
+		}()
+	}
+	for g := 0; g < 4; g++ {
+		if err := <-done; err != nil {
+			t.Error(err)
+		}
+	}
+}

@@ -33,6 +33,7 @@ func Sensitivity(m Mixture, eq *Equilibrium, c Component) (float64, error) {
 		return 0, &InputError{"Equilibrium", -1, "not a solution of this mixture"}
 	}
 	md := newModel(&m)
+	defer md.release()
 	md.setIonicStrength(eq.IonicStrength)
 	_, df, err := md.evalCharge(math.Log(eq.H))
 	if err != nil {

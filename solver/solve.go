@@ -37,6 +37,7 @@ func Solve(m Mixture) (*Equilibrium, error) {
 		return nil, err
 	}
 	md := newModel(&m)
+	defer md.release()
 	x, ionic, iters, err := md.solveSelfConsistent()
 	if err != nil {
 		return nil, err

@@ -125,6 +125,7 @@ func touchesComplex(m *Mixture, t *Component) bool {
 // ok is false when the titrant does not change the charge balance.
 func titrateLinear(m *Mixture, t *Component, targetPH float64) (amount float64, ok bool, err error) {
 	md := newModel(m)
+	defer md.release()
 	var slope, ionicSlope float64
 	solveAt := func(ionic float64) (float64, error) {
 		md.setIonicStrength(ionic)
