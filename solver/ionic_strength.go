@@ -6,8 +6,10 @@ import "math"
 // on the speciation, so I is the fixed point of Φ(I) = I(speciation at
 // γ(I)). It is found as the root of g(I) = Φ(I) − I: plain fixed-point
 // steps until a sign change brackets the root, then secant steps kept
-// inside the bracket (bisection when the secant leaves it). Because Φ
-// varies slowly with I, this usually converges in 3–5 charge-balance solves.
+// inside the bracket (bisection when the secant leaves it). Φ varies
+// slowly with I, so from a cold start this takes 3–5 charge-balance
+// solves; after the coupled warm-up of solveSelfConsistent it usually
+// only confirms, in one.
 
 // Convergence control of the ionic-strength iteration.
 const (
