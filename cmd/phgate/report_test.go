@@ -22,7 +22,7 @@ func TestReportHTML(t *testing.T) {
 		t.Fatal(err)
 	}
 	d := xml.NewDecoder(bytes.NewReader(data))
-	sections, svgs := 0, 0
+	sections, figures := 0, 0
 	for {
 		tok, err := d.Token()
 		if err == io.EOF {
@@ -35,13 +35,13 @@ func TestReportHTML(t *testing.T) {
 			switch el.Name.Local {
 			case "section":
 				sections++
-			case "svg":
-				svgs++
+			case "figure":
+				figures++
 			}
 		}
 	}
-	if sections != 3 || svgs != 12 {
-		t.Errorf("%d sections and %d charts, want 3 and 12", sections, svgs)
+	if sections != 3 || figures != 12 {
+		t.Errorf("%d sections and %d charts, want 3 and 12", sections, figures)
 	}
 	for _, id := range []string{"tris-wash-cold", "phosphate-stock-0.5m", "qc-phosphate-saline"} {
 		if !strings.Contains(string(data), "<h2>"+id) {

@@ -298,7 +298,7 @@ func buildTitration(res *evaluate.Result, opt Options) (*Chart, error) {
 			}
 			data.Sweeps = append(data.Sweeps, s)
 		}
-		xLabel = fmt.Sprintf("← %s   added (%s)   %s →", DefaultAcid, unit, DefaultBase)
+		xLabel = fmt.Sprintf("← acid added · base added → (%s)", unit)
 		subtitle = "no q.s. titrant: strong acid and base added to the product as made · " + conditions(res)
 	}
 	p := Panel{X: Axis{Label: xLabel, Alt: alt}, Y: Axis{Label: "pH"}}
@@ -405,7 +405,7 @@ func buildCapacity(res *evaluate.Result, opt Options) (*Chart, error) {
 	}
 	p := Panel{
 		X: Axis{Label: "pH", Min: 0, Max: 14},
-		Y: Axis{Label: fmt.Sprintf("buffer capacity (mmol/%s per pH, log scale)", u), Log: true,
+		Y: Axis{Label: fmt.Sprintf("buffer capacity (mmol/%s per pH)", u), Log: true,
 			Min: math.Pow(10, math.Floor(math.Log10(lo))-1), Max: math.Pow(10, math.Ceil(math.Log10(hi)))},
 		Series: []Series{{Label: "buffer capacity", X: phs, Y: y}},
 		Bands:  windowBand(r, true),
@@ -414,7 +414,7 @@ func buildCapacity(res *evaluate.Result, opt Options) (*Chart, error) {
 		Marks: []Mark{{Label: fmt.Sprintf("as made: %.3g mmol/%s per pH", own, u), X: res.Equilibrium.PH, Y: own}},
 	}
 	return &Chart{Kind: Capacity, Recipe: r.ID.Value, Title: r.ID.Value + " · buffer capacity",
-		Subtitle: "acid or base that moves the pH by one unit, water included · " + conditions(res), Panels: []Panel{p}}, nil
+		Subtitle: "acid or base that moves the pH by one unit, water included · log scale · " + conditions(res), Panels: []Panel{p}}, nil
 }
 
 // tempSpread is how far either side of the nominal temperature the

@@ -156,6 +156,8 @@ const (
 	legendGap = vg.Length(8)
 	thumbW    = vg.Length(24)
 	thumbGap  = vg.Length(4)
+	// maxFlowRows is the most rows a legend under the panels may take.
+	maxFlowRows = 3
 	// legendShare is the largest share of the width a legend column may
 	// take before the legend moves under the panels.
 	legendShare = 0.4
@@ -169,12 +171,13 @@ func (c *Chart) draw(dc draw.Canvas) {
 	y := area.Max.Y
 	title := textStyle(boldFont, titleSize, inkColor)
 	title.YAlign = draw.YTop
-	dc.FillText(title, vg.Point{X: area.Min.X, Y: y}, c.Title)
+	width := area.Max.X - area.Min.X
+	dc.FillText(title, vg.Point{X: area.Min.X, Y: y}, fitText(title, c.Title, width))
 	y -= title.Height(c.Title) + 2
 	if c.Subtitle != "" {
 		st := textStyle(sansFont, subSize, mutedColor)
 		st.YAlign = draw.YTop
-		dc.FillText(st, vg.Point{X: area.Min.X, Y: y}, c.Subtitle)
+		dc.FillText(st, vg.Point{X: area.Min.X, Y: y}, fitText(st, c.Subtitle, width))
 		y -= st.Height(c.Subtitle)
 	}
 	y -= headerGap
@@ -183,17 +186,19 @@ func (c *Chart) draw(dc draw.Canvas) {
 	entries := c.legend()
 	plots := body
 	if len(entries) > 0 {
+		// Under the panels when it takes at most maxFlowRows rows (the
+		// panels keep the full width), else in a column on the right.
 		lg := newLegend(entries)
-		colW := lg.columnWidth()
-		if colW <= legendShare*(body.Max.X-body.Min.X) {
+		bodyW := body.Max.X - body.Min.X
+		h := lg.flowHeight(bodyW)
+		if colW := lg.columnWidth(); h > maxFlowRows*lg.rowH && colW <= legendShare*bodyW {
 			cols := lg.columnsFor(body.Max.Y - body.Min.Y)
 			w := colW * vg.Length(cols)
 			lg.drawColumns(sub(dc, body.Max.X-w, body.Min.Y, body.Max.X, body.Max.Y), cols)
 			plots = sub(dc, body.Min.X, body.Min.Y, body.Max.X-w-legendGap, body.Max.Y)
 		} else {
-			h := lg.flowHeight(body.Max.X - body.Min.X)
 			lg.drawFlow(sub(dc, body.Min.X, body.Min.Y, body.Max.X, body.Min.Y+h))
-			plots = sub(dc, body.Min.X, body.Min.Y+h+legendGap, body.Max.X, body.Max.Y)
+			plots = sub(dc, body.Min.X, body.Min.Y+h+legendGap/2, body.Max.X, body.Max.Y)
 		}
 	}
 	cols, rows := grid(len(c.Panels), plots.Max.X-plots.Min.X, plots.Max.Y-plots.Min.Y)
@@ -256,7 +261,7 @@ func drawPanel(tile draw.Canvas, p *Panel, xLabel, yLabel bool) {
 	pl.Y.Label.TextStyle.XAlign, pl.Y.Label.TextStyle.YAlign = draw.XCenter, draw.YBottom
 	pl.X.Label.TextStyle.XAlign, pl.X.Label.TextStyle.YAlign = draw.XCenter, draw.YBottom
 	if xLabel {
-		pl.X.Label.Text = p.X.Label
+		pl.X.Label.Text = fitText(pl.X.Label.TextStyle, p.X.Label, tile.Max.X-tile.Min.X)
 	}
 	if yLabel && p.Y.Label != "" {
 		// Drawn here rather than by gonum/plot, which centres a y label
@@ -264,15 +269,16 @@ func drawPanel(tile draw.Canvas, p *Panel, xLabel, yLabel bool) {
 		ts := textStyle(sansFont, labelSize, inkColor)
 		ts.Rotation = math.Pi / 2
 		ts.XAlign, ts.YAlign = draw.XCenter, draw.YTop
-		tile.FillText(ts, vg.Point{X: tile.Min.X, Y: (tile.Min.Y + tile.Max.Y) / 2}, p.Y.Label)
+		label := fitText(ts, p.Y.Label, tile.Max.Y-tile.Min.Y)
+		tile.FillText(ts, vg.Point{X: tile.Min.X, Y: (tile.Min.Y + tile.Max.Y) / 2}, label)
 		tile.Min.X += ts.Height(p.Y.Label) + 3
 	}
 	// About one labelled tick per 40 pt of axis, 3 to 7 of them.
 	pl.X.Tick.Marker = niceTicks{alt: p.X.Alt, most: min(max(int((tile.Max.X-tile.Min.X)/40), 3), 7)}
-	pl.Y.Tick.Marker = niceTicks{most: min(max(int((tile.Max.Y-tile.Min.Y)/40), 3), 7)}
+	pl.Y.Tick.Marker = niceTicks{most: min(max(int((tile.Max.Y-tile.Min.Y)/30), 3), 7)}
 	if p.Y.Log {
 		pl.Y.Scale = plot.LogScale{}
-		pl.Y.Tick.Marker = plot.LogTicks{Prec: -1}
+		pl.Y.Tick.Marker = decadeTicks{}
 	}
 
 	g := plotter.NewGrid()
@@ -371,6 +377,25 @@ func (t niceTicks) Ticks(lo, hi float64) []plot.Tick {
 		ts = append(ts, plot.Tick{Value: v, Label: label})
 		if m := v + step/2; m < hi {
 			ts = append(ts, plot.Tick{Value: m})
+		}
+	}
+	return ts
+}
+
+// decadeTicks labels every power of ten in range, with minor ticks at 2–9
+// times each.
+type decadeTicks struct{}
+
+// Ticks implements plot.Ticker.
+func (decadeTicks) Ticks(lo, hi float64) []plot.Tick {
+	var ts []plot.Tick
+	for e := math.Floor(math.Log10(lo) + 1e-9); e <= math.Log10(hi)+1e-9; e++ {
+		v := math.Pow(10, e)
+		ts = append(ts, plot.Tick{Value: v, Label: strconv.FormatFloat(v, 'f', max(0, int(-e)), 64)})
+		for m := 2.0; m < 10; m++ {
+			if m*v <= hi {
+				ts = append(ts, plot.Tick{Value: m * v})
+			}
 		}
 	}
 	return ts
@@ -539,7 +564,7 @@ func (rp refPlotter) Plot(c draw.Canvas, p *plot.Plot) {
 	}
 	c.StrokeLine2(sty, c.Min.X, y, c.Max.X, y)
 	ts.XAlign, ts.YAlign = draw.XRight, draw.YBottom
-	labelBox(c, ts, vg.Point{X: c.Max.X - 2, Y: y + 1.5}, r.Text)
+	labelBox(c, ts, vg.Point{X: c.Max.X - 2, Y: y + 3}, r.Text)
 }
 
 // labelBox writes txt on a translucent white box so it stays readable

@@ -65,15 +65,16 @@ var (
 	boldFont = font.Font{Typeface: "Liberation", Variant: "Sans", Weight: xfont.WeightBold}
 )
 
-// Font sizes in points at the default 16 × 10 cm size.
+// Font sizes in points, chosen to stay legible when a 16 × 10 cm chart
+// is shown at half a page's width.
 const (
-	titleSize  = 11
-	subSize    = 7.5
-	panelSize  = 8
-	labelSize  = 8
-	tickSize   = 7
-	legendSize = 7.5
-	noteSize   = 6.5
+	titleSize  = 12
+	subSize    = 8
+	panelSize  = 8.5
+	labelSize  = 9
+	tickSize   = 8
+	legendSize = 8.5
+	noteSize   = 7.5
 )
 
 // seriesLine is the line style of the k-th series of a panel.

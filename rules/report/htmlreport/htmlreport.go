@@ -7,11 +7,14 @@ import (
 	"html/template"
 	"io"
 	"regexp"
+	"slices"
+	"sort"
 	"strings"
 
 	"github.com/phgate/phgate/rules"
 	"github.com/phgate/phgate/rules/report"
 	"github.com/phgate/phgate/rules/report/chart"
+	"gonum.org/v1/plot/vg"
 )
 
 // Section is one recipe of the report: its report model and its charts.
@@ -28,8 +31,7 @@ type Options struct {
 	Generator string
 }
 
-// Write renders the report to w. Charts are drawn at chart.DefaultSize
-// and scale to the width of the page.
+// Write renders the report to w. Charts scale to the width of the page.
 func Write(w io.Writer, sections []Section, opt Options) error {
 	p := page{Title: opt.Title, Generator: opt.Generator, Caution: report.Caution}
 	if p.Title == "" {
@@ -71,9 +73,31 @@ type findingView struct {
 	Where, Severity, Class, Rule, Message, Fix, Waived string
 }
 
+// Each chart is drawn twice: WideSize for screens and print, NarrowSize
+// (taller, so its text is larger once scaled to a phone's width) for
+// narrow screens; the stylesheet shows one of them.
+var (
+	WideSize   = chart.DefaultSize
+	NarrowSize = chart.Size{Width: 9.5 * vg.Centimeter, Height: 9 * vg.Centimeter, DPI: chart.DefaultSize.DPI}
+)
+
+// manyPanels: a chart with more panels than this (a peptide's many
+// groups) is drawn taller, so each panel keeps a readable height.
+const manyPanels = 4
+
+// sizesFor returns the wide and narrow sizes of c.
+func sizesFor(c *chart.Chart) (wide, narrow chart.Size) {
+	wide, narrow = WideSize, NarrowSize
+	if len(c.Panels) > manyPanels {
+		wide.Height = wide.Height * 1.3
+		narrow.Height = narrow.Height * 1.6
+	}
+	return wide, narrow
+}
+
 type chartView struct {
-	Caption string
-	SVG     template.HTML
+	Caption      string
+	Wide, Narrow template.HTML
 }
 
 type sectionView struct {
@@ -114,10 +138,9 @@ func newSectionView(i int, s Section) (sectionView, error) {
 	if basis == "" {
 		basis = "none (amounts are concentrations)"
 	}
+	// pH and its window head the section; the facts are the rest.
 	v.Facts = []fact{
-		{"pH", fmt.Sprintf("%.2f", r.PH), "activity scale, " + r.ActivityModel + " model"},
-		{"target window", v.Window, ""},
-		{"temperature", fmt.Sprintf("%g °C", r.TemperatureC), ""},
+		{"temperature", fmt.Sprintf("%g °C", r.TemperatureC), r.ActivityModel + " activity model"},
 		{"basis", basis, "concentrations in " + r.ConcentrationUnit},
 		{"ionic strength", fmt.Sprintf("%.4g mol%s", r.IonicStrength, unit), ""},
 		{"buffer capacity", fmt.Sprintf("%.4g mmol%s per pH", r.BufferCapacity*1000, unit), "acid or base that moves the pH by 1"},
@@ -152,14 +175,17 @@ func newSectionView(i int, s Section) (sectionView, error) {
 			}
 		}
 		v.Systems = append(v.Systems, systemRow{Name: s.Name, Total: fmt.Sprintf("%.4g mmol%s", s.Total*1000, unit),
-			PKa: strings.Join(pk, ", "), Dominant: s.Dominant, Charge: fmt.Sprintf("%+.2f", s.MeanCharge), States: strings.Join(fr, ", ")})
+			PKa: strings.Join(pk, ", "), Dominant: s.Dominant, Charge: signed(s.MeanCharge), States: strings.Join(fr, ", ")})
 	}
-	for _, s := range r.Salts {
+	// Closest to precipitating first, as phgate show lists them.
+	salts := slices.Clone(r.Salts)
+	sort.SliceStable(salts, func(i, j int) bool { return salts[i].SaturationIndex > salts[j].SaturationIndex })
+	for _, s := range salts {
 		note := "undersaturated"
 		if s.SaturationIndex > 0 {
 			note = "supersaturated: can precipitate"
 		}
-		v.Salts = append(v.Salts, fact{s.Name, fmt.Sprintf("%+.2f", s.SaturationIndex), note})
+		v.Salts = append(v.Salts, fact{s.Name, signed(s.SaturationIndex), note})
 	}
 	for _, p := range r.Peptides {
 		v.Peptides = append(v.Peptides, fmt.Sprintf("%s: net charge %+.2f per molecule, pI %.2f", p.Name, p.NetCharge, p.PI))
@@ -174,15 +200,23 @@ func newSectionView(i int, s Section) (sectionView, error) {
 		v.Findings = append(v.Findings, fv)
 	}
 	for _, c := range s.Charts {
-		var buf bytes.Buffer
-		if err := c.Render(&buf, chart.SVG, chart.DefaultSize); err != nil {
-			return sectionView{}, fmt.Errorf("%s: drawing the %s chart: %w", r.Recipe, c.Kind, err)
+		cv := chartView{Caption: captions[c.Kind]}
+		wide, narrow := sizesFor(c)
+		for _, d := range []struct {
+			size chart.Size
+			out  *template.HTML
+		}{{wide, &cv.Wide}, {narrow, &cv.Narrow}} {
+			var buf bytes.Buffer
+			if err := c.Render(&buf, chart.SVG, d.size); err != nil {
+				return sectionView{}, fmt.Errorf("%s: drawing the %s chart: %w", r.Recipe, c.Kind, err)
+			}
+			svg, err := inlineSVG(buf.Bytes(), c.Title)
+			if err != nil {
+				return sectionView{}, fmt.Errorf("%s: %s chart: %w", r.Recipe, c.Kind, err)
+			}
+			*d.out = svg
 		}
-		svg, err := inlineSVG(buf.Bytes(), c.Title)
-		if err != nil {
-			return sectionView{}, fmt.Errorf("%s: %s chart: %w", r.Recipe, c.Kind, err)
-		}
-		v.Charts = append(v.Charts, chartView{Caption: captions[c.Kind], SVG: svg})
+		v.Charts = append(v.Charts, cv)
 	}
 	return v, nil
 }
@@ -248,6 +282,11 @@ func windowText(w *report.Window) string {
 		return fmt.Sprintf("≥ %.2f", *w.Min)
 	}
 	return fmt.Sprintf("%.2f – %.2f", *w.Min, *w.Max)
+}
+
+// signed writes x with two decimals, a sign, and a true minus.
+func signed(x float64) string {
+	return strings.Replace(fmt.Sprintf("%+.2f", x), "-", "−", 1)
 }
 
 func batchText(mol, grams, ml float64) string {

@@ -125,16 +125,22 @@ func TestReportStructure(t *testing.T) {
 			t.Errorf("%s: %d figures, want 4", id, len(figs))
 		}
 		for k, f := range figs {
-			svgs := f.all("svg", nil)
-			if len(svgs) != 1 {
-				t.Errorf("%s figure %d: %d svg elements", id, k, len(svgs))
-				continue
+			// One drawing for wide screens and print, one for phones.
+			for _, div := range f.all("div", nil) {
+				svgs := div.all("svg", nil)
+				if len(svgs) != 1 {
+					t.Errorf("%s figure %d, %s: %d svg elements", id, k, div.attrs["class"], len(svgs))
+					continue
+				}
+				if svgs[0].attrs["viewBox"] == "" || svgs[0].attrs["width"] != "" {
+					t.Errorf("%s figure %d: svg attributes %v, want a viewBox and no fixed width", id, k, svgs[0].attrs)
+				}
+				if want := secs[i].Charts[k].Title; !strings.Contains(svgs[0].text.String(), want) {
+					t.Errorf("%s figure %d: chart title %q missing", id, k, want)
+				}
 			}
-			if svgs[0].attrs["viewBox"] == "" || svgs[0].attrs["width"] != "" {
-				t.Errorf("%s figure %d: svg attributes %v, want a viewBox and no fixed width", id, k, svgs[0].attrs)
-			}
-			if want := secs[i].Charts[k].Title; !strings.Contains(f.text.String(), want) {
-				t.Errorf("%s figure %d: chart title %q missing", id, k, want)
+			if n := len(f.all("div", nil)); n != 2 {
+				t.Errorf("%s figure %d: %d drawings, want a wide and a narrow one", id, k, n)
 			}
 		}
 		if !strings.Contains(text, report.Caution) {
