@@ -156,6 +156,8 @@ const (
 	legendGap = vg.Length(8)
 	thumbW    = vg.Length(24)
 	thumbGap  = vg.Length(4)
+	// minTitleSize is the smallest a chart title shrinks to (points).
+	minTitleSize = 9
 	// maxFlowRows is the most rows a legend under the panels may take.
 	maxFlowRows = 3
 	// legendShare is the largest share of the width a legend column may
@@ -172,6 +174,10 @@ func (c *Chart) draw(dc draw.Canvas) {
 	title := textStyle(boldFont, titleSize, inkColor)
 	title.YAlign = draw.YTop
 	width := area.Max.X - area.Min.X
+	// A long recipe id shrinks the title a little before anything is cut.
+	for size := float64(titleSize); size > minTitleSize && title.Width(c.Title) > width; size -= 0.5 {
+		title.Font.Size = vg.Points(size - 0.5)
+	}
 	dc.FillText(title, vg.Point{X: area.Min.X, Y: y}, fitText(title, c.Title, width))
 	y -= title.Height(c.Title) + 2
 	if c.Subtitle != "" {
@@ -261,7 +267,7 @@ func drawPanel(tile draw.Canvas, p *Panel, xLabel, yLabel bool) {
 	pl.Y.Label.TextStyle.XAlign, pl.Y.Label.TextStyle.YAlign = draw.XCenter, draw.YBottom
 	pl.X.Label.TextStyle.XAlign, pl.X.Label.TextStyle.YAlign = draw.XCenter, draw.YBottom
 	if xLabel {
-		pl.X.Label.Text = fitText(pl.X.Label.TextStyle, p.X.Label, tile.Max.X-tile.Min.X)
+		pl.X.Label.Text = wrapText(pl.X.Label.TextStyle, p.X.Label, tile.Max.X-tile.Min.X)
 	}
 	if yLabel && p.Y.Label != "" {
 		// Drawn here rather than by gonum/plot, which centres a y label
@@ -427,6 +433,24 @@ func fitText(ts text.Style, txt string, w vg.Length) string {
 		r = r[:len(r)-1]
 	}
 	return string(r) + "…"
+}
+
+// wrapText breaks txt into at most two lines of width w at spaces, and
+// shortens the second line if it is still too long.
+func wrapText(ts text.Style, txt string, w vg.Length) string {
+	if ts.Width(txt) <= w {
+		return txt
+	}
+	words := strings.Fields(txt)
+	line := ""
+	for i, word := range words {
+		next := strings.TrimSpace(line + " " + word)
+		if line != "" && ts.Width(next) > w {
+			return line + "\n" + fitText(ts, strings.Join(words[i:], " "), w)
+		}
+		line = next
+	}
+	return fitText(ts, txt, w)
 }
 
 // curveLabels writes each series' label just under the curve's highest
