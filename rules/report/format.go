@@ -1,6 +1,7 @@
 package report
 
 import (
+	"bufio"
 	"encoding/json"
 	"fmt"
 	"io"
@@ -12,14 +13,44 @@ type Formatter interface {
 	Write(w io.Writer, rep *Report) error
 }
 
-// JSON writes the report as indented JSON.
+// JSON writes the report as one JSON document in which each recipe sits
+// on a line of its own: valid JSON for tools, greppable and diffable by
+// line for people, and fast to write for repositories with thousands of
+// recipes (no whole-document indentation pass).
 type JSON struct{}
 
 // Write implements Formatter.
 func (JSON) Write(w io.Writer, rep *Report) error {
-	enc := json.NewEncoder(w)
-	enc.SetIndent("", "  ")
-	return enc.Encode(rep)
+	bw := bufio.NewWriter(w)
+	bw.WriteString("{\"recipes\": [")
+	for i := range rep.Recipes {
+		if i > 0 {
+			bw.WriteByte(',')
+		}
+		bw.WriteString("\n  ")
+		b, err := json.Marshal(&rep.Recipes[i])
+		if err != nil {
+			return err
+		}
+		bw.Write(b)
+	}
+	if len(rep.Recipes) > 0 {
+		bw.WriteByte('\n')
+	}
+	bw.WriteString("],\n")
+	rest := map[string]any{"project_findings": rep.Findings, "problems": rep.Problems, "summary": rep.Summary}
+	for i, k := range []string{"project_findings", "problems", "summary"} {
+		b, err := json.MarshalIndent(rest[k], "", "  ")
+		if err != nil {
+			return err
+		}
+		fmt.Fprintf(bw, "%q: %s", k, b)
+		if i < 2 {
+			bw.WriteString(",\n")
+		}
+	}
+	bw.WriteString("}\n")
+	return bw.Flush()
 }
 
 // formats lists the --format values in the order help shows them.

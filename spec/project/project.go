@@ -10,6 +10,7 @@ import (
 	"io/fs"
 	"os"
 	"path/filepath"
+	"runtime"
 	"sort"
 	"strings"
 	"sync"
@@ -71,7 +72,7 @@ func Discover(paths []string) *Run {
 	if len(paths) == 0 {
 		paths = []string{"."}
 	}
-	d := &discovery{projects: map[string]*Project{}, files: map[string]*File{}}
+	d := &discovery{projects: map[string]*Project{}, files: map[string]*File{}, parsed: map[string]*File{}}
 	for _, p := range paths {
 		d.target(filepath.Clean(p))
 	}
@@ -92,7 +93,9 @@ func Discover(paths []string) *Run {
 type discovery struct {
 	projects map[string]*Project
 	files    map[string]*File
-	skipped  int
+	// parsed holds files parsed but not yet registered, by absolute path.
+	parsed  map[string]*File
+	skipped int
 }
 
 func (d *discovery) target(p string) {
@@ -167,9 +170,9 @@ func (d *discovery) projectFor(dir string) *Project {
 }
 
 // walk loads every YAML file under dir that the project's include and
-// exclude globs let through.
+// exclude globs let through. Files are parsed in parallel and registered
+// in path order, so duplicate-id problems are deterministic.
 func (d *discovery) walk(dir string, p *Project) []*File {
-	var out []*File
 	skip := map[string]bool{}
 	if p.Config.Path != "" {
 		skip[mustAbs(p.Config.Path)] = true
@@ -177,14 +180,16 @@ func (d *discovery) walk(dir string, p *Project) []*File {
 			skip[mustAbs(filepath.Join(p.Config.Dir, filepath.FromSlash(c.Value)))] = true
 		}
 	}
+	var paths []string
 	_ = filepath.WalkDir(dir, func(path string, e fs.DirEntry, err error) error {
 		if err != nil {
 			if path == dir {
 				return nil
 			}
-			f := &File{Path: path, project: p, Problems: diag.Problems{{Path: path, Message: "cannot read: " + unwrapPathErr(err).Error()}}}
-			d.files[mustAbs(path)] = f
-			out = append(out, f)
+			if _, seen := d.files[mustAbs(path)]; !seen {
+				d.files[mustAbs(path)] = &File{Path: path, project: p, Problems: diag.Problems{{Path: path, Message: "cannot read: " + unwrapPathErr(err).Error()}}}
+			}
+			paths = append(paths, path)
 			return nil
 		}
 		rel := relSlash(p.Config.Dir, path)
@@ -201,14 +206,48 @@ func (d *discovery) walk(dir string, p *Project) []*File {
 		if e.Name() == ConfigName || skip[mustAbs(path)] || p.excluded(rel) || !p.included(rel) {
 			return nil
 		}
-		f := d.load(path, false, p)
-		if f.Skipped {
-			return nil
-		}
-		out = append(out, f)
+		paths = append(paths, path)
 		return nil
 	})
+	d.parseAll(paths, p)
+	var out []*File
+	for _, path := range paths {
+		f := d.register(path, false, p)
+		if !f.Skipped {
+			out = append(out, f)
+		}
+	}
 	return out
+}
+
+// parseAll reads and parses the files not seen yet, on all cores.
+func (d *discovery) parseAll(paths []string, p *Project) {
+	var todo []string
+	for _, path := range paths {
+		if _, seen := d.files[mustAbs(path)]; !seen && d.parsed[mustAbs(path)] == nil {
+			todo = append(todo, path)
+		}
+	}
+	parsed := make([]*File, len(todo))
+	var wg sync.WaitGroup
+	next := make(chan int)
+	for w := 0; w < runtime.GOMAXPROCS(0); w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := range next {
+				parsed[i] = parseFile(todo[i], p)
+			}
+		}()
+	}
+	for i := range todo {
+		next <- i
+	}
+	close(next)
+	wg.Wait()
+	for i, path := range todo {
+		d.parsed[mustAbs(path)] = parsed[i]
+	}
 }
 
 func relSlash(base, path string) string {
@@ -240,14 +279,10 @@ func (p *Project) included(rel string) bool {
 	return false
 }
 
-// load reads one file once (later calls return the same File).
-func (d *discovery) load(path string, named bool, p *Project) *File {
-	key := mustAbs(path)
-	if f, ok := d.files[key]; ok {
-		return f
-	}
+// parseFile reads, decodes and validates one file; it touches no shared
+// state, so files parse in parallel.
+func parseFile(path string, p *Project) *File {
 	f := &File{Path: path, project: p}
-	d.files[key] = f
 	data, err := readLimited(path)
 	if err != nil {
 		f.Problems = diag.Problems{{Path: path, Message: err.Error()}}
@@ -260,17 +295,37 @@ func (d *discovery) load(path string, named bool, p *Project) *File {
 	}
 	if !spec.IsRecipe(doc) {
 		f.Skipped = true
-		if !named {
-			d.skipped++
-		}
 		return f
 	}
-	r, ps := spec.FromDoc(doc)
-	if ps != nil {
-		f.Problems = ps
+	f.Recipe, f.Problems = spec.FromDoc(doc)
+	return f
+}
+
+// load parses one file (once) and registers it.
+func (d *discovery) load(path string, named bool, p *Project) *File {
+	if _, seen := d.files[mustAbs(path)]; !seen && d.parsed[mustAbs(path)] == nil {
+		d.parsed[mustAbs(path)] = parseFile(path, p)
+	}
+	return d.register(path, named, p)
+}
+
+// register files a parsed file under its path and its recipe id; the
+// first call for a path decides, later calls return the same File.
+func (d *discovery) register(path string, named bool, p *Project) *File {
+	key := mustAbs(path)
+	if f, ok := d.files[key]; ok {
 		return f
 	}
-	f.Recipe = r
+	f := d.parsed[key]
+	delete(d.parsed, key)
+	d.files[key] = f
+	if f.Skipped && !named {
+		d.skipped++
+	}
+	r := f.Recipe
+	if r == nil {
+		return f
+	}
 	if other, dup := p.byID[r.ID.Value]; dup && other != f {
 		// Both files are wrong until one is renamed: neither is checked,
 		// and each names the other.

@@ -68,7 +68,9 @@ func (d *Doc) Validate(schema *jsonschema.Schema, allowedKeys func(ptr string) [
 }
 
 func collectLeaves(e *jsonschema.ValidationError, out *[]*jsonschema.ValidationError) {
-	if len(e.Causes) == 0 {
+	// An anyOf failure is one problem ("none of the allowed forms"), not
+	// one per branch.
+	if len(e.Causes) == 0 || strings.HasPrefix(e.Message, "anyOf failed") {
 		*out = append(*out, e)
 		return
 	}
@@ -101,6 +103,15 @@ func (d *Doc) describe(l *jsonschema.ValidationError, allowedKeys func(string) [
 	msg := l.Message
 	where := keyName(ptr)
 	switch {
+	case strings.Contains(l.KeywordLocation, "dependentSchemas/"):
+		// A key that excludes another: dependentSchemas/A/properties/B.
+		parts := strings.Split(l.KeywordLocation[strings.Index(l.KeywordLocation, "dependentSchemas/"):], "/")
+		if len(parts) >= 4 {
+			parent := ptr[:strings.LastIndex(ptr, "/")]
+			return []diag.Problem{d.ProblemAt(ptr, fmt.Sprintf("%s: %q cannot be combined with %q (%s)", orTop(keyName(parent)), parts[3], parts[1], oneOfHint(keyName(parent))))}
+		}
+	case strings.HasPrefix(msg, "anyOf failed"):
+		return []diag.Problem{d.ProblemAt(ptr, fmt.Sprintf("value does not match any allowed form for %s (%s)", orTop(where), oneOfHint(where)))}
 	case strings.HasPrefix(msg, "additionalProperties"):
 		var out []diag.Problem
 		for _, k := range quoted(msg) {
