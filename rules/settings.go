@@ -2,6 +2,7 @@ package rules
 
 import (
 	"fmt"
+	"github.com/phgate/phgate/spec/suggest"
 	"math"
 	"reflect"
 	"strings"
@@ -217,7 +218,7 @@ func setValue(values any, key string, node *yaml.Node) string {
 }
 
 func didYouMean(s string, candidates []string) string {
-	if near := yamldoc.Nearest(s, candidates); near != "" {
+	if near := suggest.Nearest(s, candidates); near != "" {
 		return fmt.Sprintf("; did you mean %q?", near)
 	}
 	return ""

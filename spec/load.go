@@ -93,7 +93,7 @@ func FromDoc(d *yamldoc.Doc) (*Recipe, diag.Problems) {
 	l := loader{doc: d, r: &Recipe{Path: d.Path, KeyPos: map[string]Pos{}}}
 	l.convert()
 	if len(l.problems) > 0 {
-		yamldoc.SortProblems(l.problems)
+		l.problems.Sort()
 		return nil, l.problems
 	}
 	return l.r, nil

@@ -6,7 +6,7 @@ import (
 	"text/tabwriter"
 
 	"github.com/phgate/phgate/rules"
-	"github.com/phgate/phgate/spec/yamldoc"
+	"github.com/phgate/phgate/spec/suggest"
 )
 
 // rulesCmd lists the rules, or explains one: `phgate rules [NAME]`.
@@ -31,7 +31,7 @@ func (a *App) rulesCmd(args []string) int {
 		r, ok := rules.Lookup(names[0])
 		if !ok {
 			msg := fmt.Sprintf("unknown rule %q", names[0])
-			if near := yamldoc.Nearest(names[0], rules.Names()); near != "" {
+			if near := suggest.Nearest(names[0], rules.Names()); near != "" {
 				msg += fmt.Sprintf("; did you mean %q?", near)
 			}
 			return a.fail("%s (run 'phgate rules' for the list)", msg)

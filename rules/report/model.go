@@ -192,7 +192,7 @@ func Build(res *evaluate.Result, findings []rules.Finding) Recipe {
 // Finish sorts recipes and problems and fills the summary counts.
 func (rep *Report) Finish(skipped int) {
 	sort.SliceStable(rep.Recipes, func(i, j int) bool { return rep.Recipes[i].Path < rep.Recipes[j].Path })
-	sortProblems(rep.Problems)
+	diag.Problems(rep.Problems).Sort()
 	rep.Findings = rules.SortFindings(rep.Findings)
 	rep.Summary = Summary{Recipes: len(rep.Recipes), Skipped: skipped, Problems: len(rep.Problems)}
 	for _, f := range rep.All() {
@@ -226,22 +226,6 @@ func (rep *Report) All() []rules.Finding {
 		out = append(out, r.Findings...)
 	}
 	return append(out, rep.Findings...)
-}
-
-func sortProblems(ps []diag.Problem) {
-	sort.SliceStable(ps, func(i, j int) bool {
-		a, b := ps[i], ps[j]
-		if a.Path != b.Path {
-			return a.Path < b.Path
-		}
-		if a.Line != b.Line {
-			return a.Line < b.Line
-		}
-		if a.Column != b.Column {
-			return a.Column < b.Column
-		}
-		return a.Message < b.Message
-	})
 }
 
 // round keeps n decimals so JSON output is stable across platforms.

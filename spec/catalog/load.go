@@ -98,28 +98,8 @@ func (b *builder) finish() (*Catalog, diag.Problems) {
 			fn()
 		}
 	}
-	sortProblems(b.probs)
+	b.probs.Sort()
 	return b.cat, b.probs
-}
-
-func sortProblems(ps diag.Problems) {
-	less := func(a, c diag.Problem) bool {
-		if a.Path != c.Path {
-			return a.Path < c.Path
-		}
-		if a.Line != c.Line {
-			return a.Line < c.Line
-		}
-		if a.Column != c.Column {
-			return a.Column < c.Column
-		}
-		return a.Message < c.Message
-	}
-	for i := 1; i < len(ps); i++ {
-		for j := i; j > 0 && less(ps[j], ps[j-1]); j-- {
-			ps[j], ps[j-1] = ps[j-1], ps[j]
-		}
-	}
 }
 
 // addDoc validates one document and decodes its sections.

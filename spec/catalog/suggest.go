@@ -1,32 +1,11 @@
 package catalog
 
 import (
+	"github.com/phgate/phgate/spec/suggest"
 	"sort"
 	"strconv"
 	"strings"
 )
-
-// editDistance is the Levenshtein distance between a and b in runes.
-func editDistance(a, b string) int {
-	ra, rb := []rune(a), []rune(b)
-	prev := make([]int, len(rb)+1)
-	cur := make([]int, len(rb)+1)
-	for j := range prev {
-		prev[j] = j
-	}
-	for i := 1; i <= len(ra); i++ {
-		cur[0] = i
-		for j := 1; j <= len(rb); j++ {
-			cost := 1
-			if ra[i-1] == rb[j-1] {
-				cost = 0
-			}
-			cur[j] = min(prev[j]+1, cur[j-1]+1, prev[j-1]+cost)
-		}
-		prev, cur = cur, prev
-	}
-	return prev[len(rb)]
-}
 
 // nearest returns up to n candidates close to s: within an edit distance
 // of a third of its length (at least 2), or containing it / contained in
@@ -48,7 +27,7 @@ func nearest(s string, candidates []string, n int) []string {
 			continue
 		}
 		seen[c] = true
-		d := editDistance(ls, strings.ToLower(c))
+		d := suggest.Distance(ls, strings.ToLower(c))
 		if len(ls) >= 3 && (strings.Contains(c, ls) || strings.Contains(ls, strings.ToLower(c))) {
 			d = min(d, limit)
 		}

@@ -2,7 +2,10 @@
 // in spec: a message tied to a file, a 1-based line and a 1-based column.
 package diag
 
-import "fmt"
+import (
+	"fmt"
+	"sort"
+)
 
 // Problem is something wrong with a user's file, at a position.
 // Line and Column are 1-based; Column counts Unicode code points (runes),
@@ -40,4 +43,22 @@ func (ps Problems) Error() string {
 		s += p.Error()
 	}
 	return s
+}
+
+// Sort orders problems by path, line, column and message, so output is
+// the same whatever order they were found in.
+func (ps Problems) Sort() {
+	sort.SliceStable(ps, func(i, j int) bool {
+		a, b := ps[i], ps[j]
+		if a.Path != b.Path {
+			return a.Path < b.Path
+		}
+		if a.Line != b.Line {
+			return a.Line < b.Line
+		}
+		if a.Column != b.Column {
+			return a.Column < b.Column
+		}
+		return a.Message < b.Message
+	})
 }

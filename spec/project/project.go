@@ -7,6 +7,7 @@ package project
 
 import (
 	"fmt"
+	"github.com/phgate/phgate/spec/suggest"
 	"io/fs"
 	"os"
 	"path/filepath"
@@ -398,7 +399,7 @@ func (p *Project) evaluateNow(f *File, chain []string) (*evaluate.Result, diag.P
 		sf, ok := p.byID[stockID]
 		if !ok {
 			msg := fmt.Sprintf("no recipe with id %q in this project", stockID)
-			if s := yamldoc.Nearest(stockID, p.IDs()); s != "" {
+			if s := suggest.Nearest(stockID, p.IDs()); s != "" {
 				msg += fmt.Sprintf("; did you mean %q?", s)
 			}
 			return nil, &diag.Problem{Path: f.Path, Line: at.Line, Column: at.Column, Message: msg}

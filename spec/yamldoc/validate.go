@@ -8,6 +8,7 @@ import (
 	"sync"
 
 	"github.com/phgate/phgate/spec/diag"
+	"github.com/phgate/phgate/spec/suggest"
 	"github.com/santhosh-tekuri/jsonschema/v5"
 )
 
@@ -63,7 +64,7 @@ func (d *Doc) Validate(schema *jsonschema.Schema, allowedKeys func(ptr string) [
 		}
 	}
 	ps = dropOneOfNoise(ps)
-	SortProblems(ps)
+	ps.Sort()
 	return ps
 }
 
@@ -118,7 +119,7 @@ func (d *Doc) describe(l *jsonschema.ValidationError, allowedKeys func(string) [
 			kp := ptr + "/" + escape(k)
 			text := fmt.Sprintf("unknown key %q", k)
 			if allowedKeys != nil {
-				if s := Nearest(k, allowedKeys(ptr)); s != "" {
+				if s := suggest.Nearest(k, allowedKeys(ptr)); s != "" {
 					text += fmt.Sprintf("; did you mean %q?", s)
 				}
 			}
@@ -240,43 +241,6 @@ func wrap(ks []string) []string {
 		out[i] = fmt.Sprintf("%q", k)
 	}
 	return out
-}
-
-// Nearest returns the candidate closest to s by edit distance when it is
-// close enough to be a plausible typo, or "".
-func Nearest(s string, candidates []string) string {
-	best, bestD := "", 1<<30
-	for _, c := range candidates {
-		if d := Distance(strings.ToLower(s), strings.ToLower(c)); d < bestD {
-			best, bestD = c, d
-		}
-	}
-	if best == "" || bestD > max(2, len([]rune(s))/3) {
-		return ""
-	}
-	return best
-}
-
-// Distance is the Levenshtein edit distance between a and b, in runes.
-func Distance(a, b string) int {
-	ra, rb := []rune(a), []rune(b)
-	prev := make([]int, len(rb)+1)
-	cur := make([]int, len(rb)+1)
-	for j := range prev {
-		prev[j] = j
-	}
-	for i := 1; i <= len(ra); i++ {
-		cur[0] = i
-		for j := 1; j <= len(rb); j++ {
-			cost := 1
-			if ra[i-1] == rb[j-1] {
-				cost = 0
-			}
-			cur[j] = min(prev[j]+1, cur[j-1]+1, prev[j-1]+cost)
-		}
-		prev, cur = cur, prev
-	}
-	return prev[len(rb)]
 }
 
 // KeysFromSchema lists the property names a schema allows for the object

@@ -11,7 +11,6 @@ import (
 	"io"
 	"math"
 	"regexp"
-	"sort"
 	"strconv"
 	"strings"
 	"unicode/utf8"
@@ -222,21 +221,4 @@ func (d *Doc) Keys(ptr string) []string {
 		ks = append(ks, n.Content[i].Value)
 	}
 	return ks
-}
-
-// SortProblems orders problems by path, line, column and message.
-func SortProblems(ps diag.Problems) {
-	sort.SliceStable(ps, func(i, j int) bool {
-		a, b := ps[i], ps[j]
-		if a.Path != b.Path {
-			return a.Path < b.Path
-		}
-		if a.Line != b.Line {
-			return a.Line < b.Line
-		}
-		if a.Column != b.Column {
-			return a.Column < b.Column
-		}
-		return a.Message < b.Message
-	})
 }
