@@ -63,7 +63,7 @@ func (d *Detail) Write(w io.Writer, r Recipe) error {
 		if l.QS {
 			inProduct = "to basis"
 		}
-		batch := batchText(l.Mol, l.Grams, l.Millilitres)
+		batch := BatchText(l.Mol, l.Grams, l.Millilitres)
 		fmt.Fprintf(tw, "  %s\t%s\t%s\t%s\t\n", l.Ingredient, amount, inProduct, batch)
 	}
 	tw.Flush()
@@ -141,7 +141,8 @@ func windowText(w *Window) string {
 	return lo + " – " + hi
 }
 
-func batchText(mol, grams, ml float64) string {
+// BatchText renders per-batch amounts: grams, mmol and mL where known.
+func BatchText(mol, grams, ml float64) string {
 	var parts []string
 	if grams != 0 {
 		parts = append(parts, fmt.Sprintf("%.4g g", grams))

@@ -22,14 +22,7 @@ func (Markdown) Write(w io.Writer, rep *Report) error {
 		verdict = "fail"
 	}
 	fmt.Fprintf(&b, "### phgate: %s\n\n", verdict)
-	parts := []string{plural(s.Recipes, "recipe"), plural(s.Errors, "error"), plural(s.Warnings, "warning")}
-	if s.Infos > 0 {
-		parts = append(parts, plural(s.Infos, "note"))
-	}
-	if s.Waived > 0 {
-		parts = append(parts, fmt.Sprintf("%d waived", s.Waived))
-	}
-	parts = append(parts, plural(s.Problems, "problem"))
+	parts := s.Tally()
 	fmt.Fprintf(&b, "%s\n\n", strings.Join(parts, " · "))
 
 	if len(rep.Recipes) > 0 {

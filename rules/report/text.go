@@ -18,8 +18,20 @@ type Text struct {
 }
 
 func (t *Text) paint(attrs ...color.Attribute) func(a ...any) string {
+	return Palette{On: t.Color}.Paint(attrs...)
+}
+
+// Palette paints parts of the output when On; it keeps colour state on
+// the formatter value rather than in a package global.
+type Palette struct {
+	On bool
+}
+
+// Paint returns a function that renders its arguments with attrs, or
+// plainly when the palette is off.
+func (p Palette) Paint(attrs ...color.Attribute) func(a ...any) string {
 	c := color.New(attrs...)
-	if t.Color {
+	if p.On {
 		c.EnableColor()
 	} else {
 		c.DisableColor()
@@ -27,15 +39,21 @@ func (t *Text) paint(attrs ...color.Attribute) func(a ...any) string {
 	return c.SprintFunc()
 }
 
+// Severities returns the paint of each severity, the same in every
+// text output.
+func (p Palette) Severities() map[rules.Severity]func(a ...any) string {
+	return map[rules.Severity]func(a ...any) string{
+		rules.Error:   p.Paint(color.FgHiRed, color.Bold),
+		rules.Warning: p.Paint(color.FgYellow),
+		rules.Info:    p.Paint(color.FgCyan),
+	}
+}
+
 // Write implements Formatter.
 func (t *Text) Write(w io.Writer, rep *Report) error {
 	bold := t.paint(color.Bold)
 	dim := t.paint(color.Faint)
-	sevPaint := map[rules.Severity]func(a ...any) string{
-		rules.Error:   t.paint(color.FgHiRed, color.Bold),
-		rules.Warning: t.paint(color.FgYellow),
-		rules.Info:    t.paint(color.FgCyan),
-	}
+	sevPaint := Palette{On: t.Color}.Severities()
 	var b strings.Builder
 	for _, r := range rep.Recipes {
 		fmt.Fprintf(&b, "%s  %s\n", bold(r.Path), dim(r.Recipe))
@@ -64,14 +82,7 @@ func (t *Text) Write(w io.Writer, rep *Report) error {
 		b.WriteString("\n")
 	}
 	s := rep.Summary
-	parts := []string{plural(s.Recipes, "recipe"), plural(s.Errors, "error"), plural(s.Warnings, "warning")}
-	if s.Infos > 0 {
-		parts = append(parts, plural(s.Infos, "note"))
-	}
-	if s.Waived > 0 {
-		parts = append(parts, fmt.Sprintf("%d waived", s.Waived))
-	}
-	parts = append(parts, plural(s.Problems, "problem"))
+	parts := s.Tally()
 	if s.Skipped > 0 {
 		parts = append(parts, fmt.Sprintf("%d other YAML skipped", s.Skipped))
 	}
@@ -89,11 +100,7 @@ func (t *Text) Write(w io.Writer, rep *Report) error {
 func (t *Text) findings(b *strings.Builder, fs []rules.Finding) {
 	bold := t.paint(color.Bold)
 	dim := t.paint(color.Faint)
-	sevPaint := map[rules.Severity]func(a ...any) string{
-		rules.Error:   t.paint(color.FgHiRed, color.Bold),
-		rules.Warning: t.paint(color.FgYellow),
-		rules.Info:    t.paint(color.FgCyan),
-	}
+	sevPaint := Palette{On: t.Color}.Severities()
 	width := 0
 	for _, f := range fs {
 		width = max(width, len(fmt.Sprintf("%d:%d", f.Line, f.Column)))
@@ -150,4 +157,16 @@ func plural(n int, word string) string {
 		return fmt.Sprintf("1 %s", word)
 	}
 	return fmt.Sprintf("%d %ss", n, word)
+}
+
+// Tally is the summary as short counted phrases ("3 recipes", "1 error").
+func (s Summary) Tally() []string {
+	parts := []string{plural(s.Recipes, "recipe"), plural(s.Errors, "error"), plural(s.Warnings, "warning")}
+	if s.Infos > 0 {
+		parts = append(parts, plural(s.Infos, "note"))
+	}
+	if s.Waived > 0 {
+		parts = append(parts, fmt.Sprintf("%d waived", s.Waived))
+	}
+	return append(parts, plural(s.Problems, "problem"))
 }

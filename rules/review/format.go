@@ -52,13 +52,7 @@ type Text struct {
 }
 
 func (t *Text) paint(attrs ...color.Attribute) func(a ...any) string {
-	c := color.New(attrs...)
-	if t.Color {
-		c.EnableColor()
-	} else {
-		c.DisableColor()
-	}
-	return c.SprintFunc()
+	return report.Palette{On: t.Color}.Paint(attrs...)
 }
 
 // Write implements Formatter.
@@ -71,11 +65,7 @@ func (t *Text) Write(w io.Writer, d *Diff) error {
 		Removed:   t.paint(color.FgRed, color.Bold),
 		Unchanged: t.paint(color.Faint),
 	}
-	sevPaint := map[rules.Severity]func(a ...any) string{
-		rules.Error:   t.paint(color.FgHiRed, color.Bold),
-		rules.Warning: t.paint(color.FgYellow),
-		rules.Info:    t.paint(color.FgCyan),
-	}
+	sevPaint := report.Palette{On: t.Color}.Severities()
 	var b strings.Builder
 	fmt.Fprintf(&b, "%s %s → %s\n\n", bold("comparing"), d.Old.Label, d.New.Label)
 	for _, c := range d.Changes {

@@ -148,7 +148,7 @@ func newSectionView(i int, s Section) (sectionView, error) {
 	}
 	for _, l := range r.Ingredients {
 		row := ingredientRow{Name: l.Ingredient, Written: l.Amount, InProduct: fmt.Sprintf("%.4g mmol%s", l.Conc*1000, unit),
-			PerBatch: batchText(l.Mol, l.Grams, l.Millilitres)}
+			PerBatch: report.BatchText(l.Mol, l.Grams, l.Millilitres)}
 		if strings.HasPrefix(l.Ingredient, "from ") {
 			row.InProduct = fmt.Sprintf("%.4g %% v/v", l.Conc*100)
 		}
@@ -287,23 +287,6 @@ func windowText(w *report.Window) string {
 // signed writes x with two decimals, a sign, and a true minus.
 func signed(x float64) string {
 	return strings.Replace(fmt.Sprintf("%+.2f", x), "-", "−", 1)
-}
-
-func batchText(mol, grams, ml float64) string {
-	var parts []string
-	if grams != 0 {
-		parts = append(parts, fmt.Sprintf("%.4g g", grams))
-	}
-	if mol != 0 {
-		parts = append(parts, fmt.Sprintf("%.4g mmol", mol*1000))
-	}
-	if ml != 0 {
-		parts = append(parts, fmt.Sprintf("%.4g mL", ml))
-	}
-	if len(parts) == 0 {
-		return "–"
-	}
-	return strings.Join(parts, ", ")
 }
 
 var viewBoxRE = regexp.MustCompile(`viewBox="([0-9. ]+)"`)

@@ -1,0 +1,171 @@
+package report_test
+
+import (
+	"bytes"
+	"encoding/json"
+	"math"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"github.com/phgate/phgate/rules"
+	"github.com/phgate/phgate/rules/report"
+	"github.com/phgate/phgate/spec"
+	"github.com/phgate/phgate/spec/catalog"
+	"github.com/phgate/phgate/spec/diag"
+	"github.com/phgate/phgate/spec/evaluate"
+)
+
+// pipelineStart is the hand-written part of FuzzPipeline's starting
+// corpus: the edges of the model (q.s. out of reach, extreme temperatures
+// and amounts, an inline catalog with extreme pKa values, a stock).
+var pipelineStart = []string{
+	"recipe: a\nbasis: 1 L\ningredients:\n  - use: tris\n    amount: 50 mM\n  - use: hydrochloric-acid\n    adjust-to-ph: 7.4\n    stock: 1 M\n",
+	"recipe: a\ningredients:\n  - use: disodium-hydrogen-phosphate\n    amount: 50 mM\n  - use: acetic-acid\n    adjust-to-ph: 3\n",
+	"recipe: a\ntemperature: {nominal: 95 C, range: 0..95 C}\nph: {min: 6, max: 9}\ningredients:\n  - use: tris\n    amount: 0.1 M\n  - use: sodium-hydroxide\n    amount: 20 mM\n",
+	"recipe: a\ntemperature: 0 C\ningredients:\n  - use: purified-water\n    amount: q.s.\n",
+	"recipe: a\nbasis: 1 kg\ningredients:\n  - use: sodium-chloride\n    amount: 10 mol\n",
+	"recipe: a\ningredients:\n  - use: hydrochloric-acid\n    amount: 1e-9 M\n",
+	"recipe: a\nbasis: 1 L\ningredients:\n  - use: sodium-chloride\n    amount: 9 g\n  - use: sodium-hydroxide\n    adjust-to-ph: 13.9\n",
+	"recipe: a\ncatalog:\n  sources:\n    t: {cite: test, status: derived}\n  systems:\n    hyper:\n      name: Hyper\n      top-charge: 0\n      species: [HX, X-, X-2]\n      source: t\n      steps: [{pka: -5}, {pka: 19}]\n  ingredients:\n    hx:\n      name: HX\n      formula: H2O\n      systems: [{system: hyper, species: HX}]\n      sources: [t]\ningredients:\n  - use: hx\n    amount: 0.1 M\n",
+	"recipe: a\nbasis: 1 L\ningredients:\n  - from: stock-b\n    amount: 20 mL\n  - sequence: GKDEYHRLAKSE\n    amount: 1 mg/mL\n",
+}
+
+// FuzzPipeline runs arbitrary bytes through everything `phgate check` does
+// for one recipe: load, inline catalog, evaluate, rules, report model,
+// JSON. It must never panic; every problem and finding must carry a
+// message; and no number anywhere may be NaN or infinite (a NaN that
+// report rounding would hide as 0 counts too, since it would print a
+// wrong value). The examples and the IUPAC standards are part of the
+// starting corpus, with pipelineStart.
+func FuzzPipeline(f *testing.F) {
+	for _, pattern := range []string{"../../examples/recipes/*/*.yaml", "../../testdata/standards/*.yaml"} {
+		files, err := filepath.Glob(pattern)
+		if err != nil {
+			f.Fatal(err)
+		}
+		for _, name := range files {
+			data, err := os.ReadFile(name)
+			if err != nil {
+				f.Fatal(err)
+			}
+			f.Add(data)
+		}
+	}
+	for _, s := range pipelineStart {
+		f.Add([]byte(s))
+	}
+	base := catalog.Default()
+	f.Fuzz(func(t *testing.T, data []byte) {
+		r, ps := spec.LoadRecipe(data, "fuzz.yaml")
+		if (r == nil) == (len(ps) == 0) {
+			t.Fatalf("recipe %v with problems %v", r != nil, ps)
+		}
+		if r == nil {
+			checkProblems(t, data, ps)
+			return
+		}
+		cat := base
+		if r.Catalog != nil {
+			inline, ps := catalog.FromNodeWithBase(r.Catalog, r.Path, base)
+			if len(ps) > 0 {
+				checkProblems(t, data, ps)
+				return
+			}
+			merged, err := base.Merge(inline)
+			if err != nil {
+				return
+			}
+			cat = merged
+		}
+		lookup := func(id string, at spec.Pos) (*evaluate.Result, *diag.Problem) {
+			return nil, &diag.Problem{Path: r.Path, Line: at.Line, Column: at.Column, Message: "no stock recipes while fuzzing"}
+		}
+		res, ps := evaluate.Evaluate(r, cat, lookup)
+		if (res == nil) == (len(ps) == 0) {
+			t.Fatalf("result %v with problems %v", res != nil, ps)
+		}
+		if res == nil {
+			checkProblems(t, data, ps)
+			return
+		}
+		checkResult(t, res)
+		findings := rules.Check(res)
+		for _, fd := range findings {
+			if fd.Message == "" || fd.Line <= 0 {
+				t.Fatalf("finding without message or position: %+v", fd)
+			}
+			checkText(t, data, "finding", fd.Message)
+		}
+		rep := report.Build(res, findings)
+		out, err := json.Marshal(rep)
+		if err != nil {
+			t.Fatalf("marshal report: %v", err)
+		}
+		if !json.Valid(out) {
+			t.Fatalf("invalid JSON %s", out)
+		}
+	})
+}
+
+// checkProblems requires a message on every problem, and no "NaN" or
+// "Inf" the input did not bring.
+func checkProblems(t *testing.T, data []byte, ps diag.Problems) {
+	t.Helper()
+	for _, p := range ps {
+		if p.Message == "" || p.Line < 0 || p.Column < 0 {
+			t.Fatalf("bad problem %+v", p)
+		}
+		checkText(t, data, "problem", p.Message)
+	}
+}
+
+// checkText fails on a non-finite number printed into a message. The
+// input's own text can legitimately be quoted back, so a word the input
+// already contains is not held against the message.
+func checkText(t *testing.T, data []byte, what, msg string) {
+	t.Helper()
+	for _, bad := range []string{"NaN", "Inf"} {
+		if strings.Contains(msg, bad) && !bytes.Contains(data, []byte(bad)) {
+			t.Fatalf("%s message prints a non-finite number: %q", what, msg)
+		}
+	}
+}
+
+// checkResult requires every number of the solved recipe to be finite.
+func checkResult(t *testing.T, res *evaluate.Result) {
+	t.Helper()
+	finite := func(what string, xs ...float64) {
+		for _, x := range xs {
+			if math.IsNaN(x) || math.IsInf(x, 0) {
+				t.Fatalf("%s is %v", what, x)
+			}
+		}
+	}
+	eq := res.Equilibrium
+	if eq == nil {
+		t.Fatal("result without an equilibrium")
+	}
+	finite("equilibrium", eq.PH, eq.IonicStrength, eq.BufferCapacity, eq.Osmolarity)
+	for _, s := range eq.Systems {
+		finite("system "+s.Name, s.MeanCharge)
+		finite("pKa of "+s.Name, s.PKa...)
+		finite("fractions of "+s.Name, s.Fractions...)
+	}
+	for _, s := range eq.Salts {
+		finite("salt "+s.Name, s.SaturationIndex)
+	}
+	for _, l := range res.Lines {
+		finite("line "+l.Label(), l.Conc, l.Moles, l.Grams, l.Millilitres)
+	}
+	if a := res.Adjustment; a != nil {
+		finite("q.s. adjustment", a.Conc, a.Moles, a.Grams, a.Millilitres, a.TargetPH)
+	}
+	if u := res.Unreachable; u != nil {
+		finite("unreachable range", u.MinPH, u.MaxPH, u.MaxAmount)
+	}
+	for _, p := range res.Peptides {
+		finite("peptide "+p.Label, p.NetCharge, p.PI)
+	}
+}
