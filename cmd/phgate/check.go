@@ -1,9 +1,10 @@
 package main
 
 import (
+	"fmt"
 	"runtime"
+	"strconv"
 	"strings"
-	"sync"
 
 	"github.com/phgate/phgate/rules"
 	"github.com/phgate/phgate/rules/report"
@@ -16,6 +17,8 @@ func (a *App) check(args []string) int {
 	format := fs.String("format", "text", "output format: "+strings.Join(report.Names(), ", "))
 	failOn := fs.String("fail-on", "error", "lowest severity that makes the exit status 1: error, warning or never")
 	jobs := fs.Int("jobs", runtime.NumCPU(), "recipes solved in parallel")
+	shard := fs.String("shard", "", "check only shard I of N (e.g. 2/4), split by a hash of each file's path")
+	maxSize := fs.String("max-file-size", "1MiB", "largest recipe file read (e.g. 512KiB, 2MiB)")
 	paths, err := parse(fs, args)
 	if err != nil {
 		if isHelp(err) {
@@ -34,8 +37,17 @@ func (a *App) check(args []string) int {
 	if *jobs < 1 {
 		return a.fail("--jobs must be at least 1")
 	}
-	rep := a.runCheck(paths, *jobs)
-	if err := f.Write(a.Stdout, rep); err != nil {
+	var opts project.Options
+	if *shard != "" {
+		if opts.Shard, opts.Shards, err = parseShard(*shard); err != nil {
+			return a.fail("--shard: %v", err)
+		}
+	}
+	if opts.MaxFileSize, err = parseSize(*maxSize); err != nil {
+		return a.fail("--max-file-size: %v", err)
+	}
+	rep, err := a.runCheck(paths, opts, *jobs, f)
+	if err != nil {
 		return a.fail("writing the report: %v", err)
 	}
 	return exitStatus(rep, threshold)
@@ -60,10 +72,11 @@ func exitStatus(rep *report.Report, threshold rules.Severity) int {
 	if len(rep.Problems) > 0 {
 		return ExitProblem
 	}
-	for _, f := range rep.All() {
-		if f.Waived == "" && f.Severity >= threshold {
-			return ExitFindings
-		}
+	// The summary counts findings no waiver accepted, streamed recipes
+	// included.
+	s := rep.Summary
+	if (threshold <= rules.Error && s.Errors > 0) || (threshold <= rules.Warning && s.Warnings > 0) || (threshold <= rules.Info && s.Infos > 0) {
+		return ExitFindings
 	}
 	return ExitOK
 }
@@ -83,52 +96,113 @@ func policies(run *project.Run) (map[*project.Project]*rules.Policy, diag.Proble
 	return out, ps
 }
 
-// runCheck discovers, solves and checks recipes on jobs workers; the
-// report order is deterministic (by path) whatever the scheduling.
-func (a *App) runCheck(paths []string, jobs int) *report.Report {
-	run := project.Discover(paths)
+// runCheck discovers, solves and checks recipes on jobs workers and
+// writes the report with f. The output order is deterministic (by path)
+// whatever the scheduling. A format that streams gets each recipe as soon
+// as it and every recipe before it are done, and the recipe is then
+// dropped, so memory does not grow with the repository; other formats
+// get the whole report at the end.
+func (a *App) runCheck(paths []string, opts project.Options, jobs int, f report.Formatter) (*report.Report, error) {
+	run := project.DiscoverWith(paths, opts)
 	rep := &report.Report{}
 	pols, ps := policies(run)
 	rep.Problems = append(rep.Problems, ps...)
-	results := make([]*report.Recipe, len(run.Files))
-	problems := make([]diag.Problems, len(run.Files))
-	var wg sync.WaitGroup
+	stream, streaming := f.(report.Streamer)
+
+	type outcome struct {
+		recipe   *report.Recipe
+		problems diag.Problems
+		done     chan struct{}
+	}
+	outcomes := make([]outcome, len(run.Files))
+	for i := range outcomes {
+		outcomes[i].done = make(chan struct{})
+	}
 	next := make(chan int)
 	for w := 0; w < jobs; w++ {
-		wg.Add(1)
 		go func() {
-			defer wg.Done()
 			for i := range next {
+				o := &outcomes[i]
 				file := run.Files[i]
-				res, ps := file.Evaluate()
-				if len(ps) > 0 {
-					problems[i] = ps
-					continue
+				if res, ps := file.Evaluate(); len(ps) > 0 {
+					o.problems = ps
+				} else if fs, ps := pols[file.Project()].Check(res); len(ps) > 0 {
+					o.problems = ps
+				} else {
+					r := report.Build(res, fs)
+					o.recipe = &r
 				}
-				fs, ps := pols[file.Project()].Check(res)
-				if len(ps) > 0 {
-					problems[i] = ps
-					continue
-				}
-				r := report.Build(res, fs)
-				results[i] = &r
+				close(o.done)
 			}
 		}()
 	}
-	for i := range run.Files {
-		next <- i
-	}
-	close(next)
-	wg.Wait()
-	for i := range run.Files {
-		if results[i] != nil {
-			rep.Recipes = append(rep.Recipes, *results[i])
+	go func() {
+		for i := range run.Files {
+			next <- i
 		}
-		rep.Problems = append(rep.Problems, problems[i]...)
+		close(next)
+	}()
+	var werr error
+	for i := range outcomes {
+		o := &outcomes[i]
+		<-o.done
+		rep.Problems = append(rep.Problems, o.problems...)
+		switch {
+		case o.recipe == nil:
+		case streaming:
+			if werr == nil {
+				werr = stream.WriteRecipe(a.Stdout, o.recipe)
+			}
+			rep.Streamed(o.recipe)
+		default:
+			rep.Recipes = append(rep.Recipes, *o.recipe)
+		}
+		o.recipe = nil
 	}
 	for _, p := range run.Projects {
 		rep.Findings = append(rep.Findings, pols[p].Stale(p.IDs())...)
 	}
 	rep.Finish(run.Skipped)
-	return rep
+	if werr != nil {
+		return rep, werr
+	}
+	if streaming {
+		return rep, stream.WriteEnd(a.Stdout, rep)
+	}
+	return rep, f.Write(a.Stdout, rep)
+}
+
+// parseShard reads "I/N" with 1 ≤ I ≤ N.
+func parseShard(s string) (i, n int, err error) {
+	a, b, ok := strings.Cut(s, "/")
+	if ok {
+		i, err = strconv.Atoi(strings.TrimSpace(a))
+		if err == nil {
+			n, err = strconv.Atoi(strings.TrimSpace(b))
+		}
+	}
+	if !ok || err != nil || n < 1 || i < 1 || i > n {
+		return 0, 0, fmt.Errorf("want I/N with 1 ≤ I ≤ N, such as 2/4, not %q", s)
+	}
+	return i, n, nil
+}
+
+// parseSize reads a byte count with an optional KB, KiB, MB or MiB suffix.
+func parseSize(s string) (int64, error) {
+	t := strings.TrimSpace(s)
+	mult := int64(1)
+	for _, u := range []struct {
+		suffix string
+		mult   int64
+	}{{"KiB", 1 << 10}, {"MiB", 1 << 20}, {"KB", 1000}, {"MB", 1000 * 1000}, {"B", 1}} {
+		if strings.HasSuffix(t, u.suffix) {
+			t, mult = strings.TrimSpace(strings.TrimSuffix(t, u.suffix)), u.mult
+			break
+		}
+	}
+	n, err := strconv.ParseInt(t, 10, 64)
+	if err != nil || n < 1 || n > (1<<40)/mult {
+		return 0, fmt.Errorf("want a size such as 512KiB or 2MiB, not %q", s)
+	}
+	return n * mult, nil
 }

@@ -77,13 +77,17 @@ func targetFor(use string, rng *rand.Rand) float64 {
 
 // BenchmarkCheckCorpus checks a generated repository of 10,000 recipes
 // end to end (discovery, parsing, validation, solving, rules, JSON
-// output). Set PHGATE_CORPUS=N for another size.
+// output). Set PHGATE_CORPUS=N for another size, and PHGATE_CORPUS_DIR to
+// keep the generated recipes in that folder (to time the binary on them).
 func BenchmarkCheckCorpus(b *testing.B) {
 	n := 10000
 	if s := os.Getenv("PHGATE_CORPUS"); s != "" {
 		fmt.Sscan(s, &n)
 	}
-	dir := b.TempDir()
+	dir := os.Getenv("PHGATE_CORPUS_DIR")
+	if dir == "" {
+		dir = b.TempDir()
+	}
 	writeCorpus(b, dir, n)
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {

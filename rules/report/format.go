@@ -13,31 +13,65 @@ type Formatter interface {
 	Write(w io.Writer, rep *Report) error
 }
 
+// Streamer is a Formatter that can write each recipe as soon as it is
+// solved (in path order) and the rest at the end, so a check over a large
+// repository holds only the tally, not every recipe.
+type Streamer interface {
+	Formatter
+	// WriteRecipe writes one recipe's part of the output.
+	WriteRecipe(w io.Writer, r *Recipe) error
+	// WriteEnd writes what follows the recipes: project findings,
+	// problems and the tally (rep.Recipes has been streamed already).
+	WriteEnd(w io.Writer, rep *Report) error
+}
+
+// writeAll writes a whole report through a Streamer's two halves.
+func writeAll(s Streamer, w io.Writer, rep *Report) error {
+	for i := range rep.Recipes {
+		if err := s.WriteRecipe(w, &rep.Recipes[i]); err != nil {
+			return err
+		}
+	}
+	return s.WriteEnd(w, rep)
+}
+
 // JSON writes the report as one JSON document in which each recipe sits
 // on a line of its own: valid JSON for tools, greppable and diffable by
 // line for people, and fast to write for repositories with thousands of
-// recipes (no whole-document indentation pass).
-type JSON struct{}
+// recipes (no whole-document indentation pass). It streams.
+type JSON struct {
+	written int
+}
 
 // Write implements Formatter.
-func (JSON) Write(w io.Writer, rep *Report) error {
+func (j *JSON) Write(w io.Writer, rep *Report) error { return writeAll(j, w, rep) }
+
+// WriteRecipe implements Streamer.
+func (j *JSON) WriteRecipe(w io.Writer, r *Recipe) error {
+	b, err := json.Marshal(r)
+	if err != nil {
+		return err
+	}
+	sep := ",\n  "
+	if j.written == 0 {
+		sep = "{\"recipes\": [\n  "
+	}
+	j.written++
+	if _, err := io.WriteString(w, sep); err != nil {
+		return err
+	}
+	_, err = w.Write(b)
+	return err
+}
+
+// WriteEnd implements Streamer.
+func (j *JSON) WriteEnd(w io.Writer, rep *Report) error {
 	bw := bufio.NewWriter(w)
-	bw.WriteString("{\"recipes\": [")
-	for i := range rep.Recipes {
-		if i > 0 {
-			bw.WriteByte(',')
-		}
-		bw.WriteString("\n  ")
-		b, err := json.Marshal(&rep.Recipes[i])
-		if err != nil {
-			return err
-		}
-		bw.Write(b)
+	if j.written == 0 {
+		bw.WriteString("{\"recipes\": [],\n")
+	} else {
+		bw.WriteString("\n],\n")
 	}
-	if len(rep.Recipes) > 0 {
-		bw.WriteByte('\n')
-	}
-	bw.WriteString("],\n")
 	rest := map[string]any{"project_findings": rep.Findings, "problems": rep.Problems, "summary": rep.Summary}
 	for i, k := range []string{"project_findings", "problems", "summary"} {
 		b, err := json.MarshalIndent(rest[k], "", "  ")
@@ -59,7 +93,7 @@ var formats = []struct {
 	make func(color bool) Formatter
 }{
 	{"text", func(c bool) Formatter { return &Text{Color: c} }},
-	{"json", func(bool) Formatter { return JSON{} }},
+	{"json", func(bool) Formatter { return &JSON{} }},
 	{"sarif", func(bool) Formatter { return SARIF{} }},
 	{"markdown", func(bool) Formatter { return Markdown{} }},
 	{"github", func(bool) Formatter { return GitHub{} }},

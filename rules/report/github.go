@@ -14,9 +14,38 @@ import (
 type GitHub struct{}
 
 // Write implements Formatter.
-func (GitHub) Write(w io.Writer, rep *Report) error {
+func (g GitHub) Write(w io.Writer, rep *Report) error { return writeAll(g, w, rep) }
+
+// WriteRecipe implements Streamer: the annotations of one recipe.
+func (GitHub) WriteRecipe(w io.Writer, r *Recipe) error {
+	return annotate(w, r.Findings)
+}
+
+// WriteEnd implements Streamer: project findings, problems, the tally.
+func (GitHub) WriteEnd(w io.Writer, rep *Report) error {
+	if err := annotate(w, rep.Findings); err != nil {
+		return err
+	}
 	var b strings.Builder
-	for _, f := range rep.All() {
+	for _, p := range rep.Problems {
+		props := "file=" + ghProperty(p.Path)
+		if p.Line > 0 {
+			props += fmt.Sprintf(",line=%d", p.Line)
+			if p.Column > 0 {
+				props += fmt.Sprintf(",col=%d", p.Column)
+			}
+		}
+		fmt.Fprintf(&b, "::error %s,title=%s::%s\n", props, ghProperty("phgate could not check"), ghData(p.Message))
+	}
+	fmt.Fprintf(&b, "phgate: %s\n", strings.Join(rep.Summary.Tally(), ", "))
+	_, err := io.WriteString(w, b.String())
+	return err
+}
+
+// annotate writes one workflow command per finding that no waiver accepted.
+func annotate(w io.Writer, fs []rules.Finding) error {
+	var b strings.Builder
+	for _, f := range fs {
 		if f.Waived != "" {
 			continue
 		}
@@ -34,19 +63,6 @@ func (GitHub) Write(w io.Writer, rep *Report) error {
 		fmt.Fprintf(&b, "::%s file=%s,line=%d,col=%d,title=%s::%s\n", cmd, ghProperty(f.Path), f.Line, f.Column,
 			ghProperty("phgate "+f.Rule), ghData(msg))
 	}
-	for _, p := range rep.Problems {
-		props := "file=" + ghProperty(p.Path)
-		if p.Line > 0 {
-			props += fmt.Sprintf(",line=%d", p.Line)
-			if p.Column > 0 {
-				props += fmt.Sprintf(",col=%d", p.Column)
-			}
-		}
-		fmt.Fprintf(&b, "::error %s,title=%s::%s\n", props, ghProperty("phgate could not check"), ghData(p.Message))
-	}
-	s := rep.Summary
-	fmt.Fprintf(&b, "phgate: %s, %s, %s, %d waived, %s\n", plural(s.Recipes, "recipe"), plural(s.Errors, "error"),
-		plural(s.Warnings, "warning"), s.Waived, plural(s.Problems, "problem"))
 	_, err := io.WriteString(w, b.String())
 	return err
 }

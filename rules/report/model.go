@@ -24,6 +24,32 @@ type Report struct {
 	Findings []rules.Finding `json:"project_findings"`
 	Problems []diag.Problem  `json:"problems"`
 	Summary  Summary         `json:"summary"`
+	// streamed counts the recipes a Streamer already wrote out instead of
+	// keeping them in Recipes.
+	streamed Summary
+}
+
+// Streamed counts a recipe that a Streamer has already written, instead
+// of keeping it in Recipes.
+func (rep *Report) Streamed(r *Recipe) {
+	rep.streamed.Recipes++
+	rep.streamed.count(r.Findings)
+}
+
+// count adds findings to the tally by severity, waived ones apart.
+func (s *Summary) count(fs []rules.Finding) {
+	for _, f := range fs {
+		switch {
+		case f.Waived != "":
+			s.Waived++
+		case f.Severity == rules.Error:
+			s.Errors++
+		case f.Severity == rules.Warning:
+			s.Warnings++
+		default:
+			s.Infos++
+		}
+	}
 }
 
 // Summary counts what the run saw.
@@ -194,19 +220,11 @@ func (rep *Report) Finish(skipped int) {
 	sort.SliceStable(rep.Recipes, func(i, j int) bool { return rep.Recipes[i].Path < rep.Recipes[j].Path })
 	diag.Problems(rep.Problems).Sort()
 	rep.Findings = rules.SortFindings(rep.Findings)
-	rep.Summary = Summary{Recipes: len(rep.Recipes), Skipped: skipped, Problems: len(rep.Problems)}
-	for _, f := range rep.All() {
-		switch {
-		case f.Waived != "":
-			rep.Summary.Waived++
-		case f.Severity == rules.Error:
-			rep.Summary.Errors++
-		case f.Severity == rules.Warning:
-			rep.Summary.Warnings++
-		default:
-			rep.Summary.Infos++
-		}
-	}
+	rep.Summary = rep.streamed
+	rep.Summary.Recipes += len(rep.Recipes)
+	rep.Summary.Skipped = skipped
+	rep.Summary.Problems = len(rep.Problems)
+	rep.Summary.count(rep.All())
 	if rep.Recipes == nil {
 		rep.Recipes = []Recipe{}
 	}

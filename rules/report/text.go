@@ -50,20 +50,30 @@ func (p Palette) Severities() map[rules.Severity]func(a ...any) string {
 }
 
 // Write implements Formatter.
-func (t *Text) Write(w io.Writer, rep *Report) error {
+func (t *Text) Write(w io.Writer, rep *Report) error { return writeAll(t, w, rep) }
+
+// WriteRecipe implements Streamer: the recipe's block.
+func (t *Text) WriteRecipe(w io.Writer, r *Recipe) error {
+	bold := t.paint(color.Bold)
+	dim := t.paint(color.Faint)
+	var b strings.Builder
+	fmt.Fprintf(&b, "%s  %s\n", bold(r.Path), dim(r.Recipe))
+	fmt.Fprintf(&b, "    %s\n", Headline(*r))
+	for _, a := range r.Adjustments {
+		fmt.Fprintf(&b, "    q.s. %s to pH %g: %s\n", a.Use, a.TargetPH, AdjustAmount(a, r.ConcentrationUnit))
+	}
+	t.findings(&b, r.Findings)
+	b.WriteString("\n")
+	_, err := io.WriteString(w, b.String())
+	return err
+}
+
+// WriteEnd implements Streamer: project findings, problems and the tally.
+func (t *Text) WriteEnd(w io.Writer, rep *Report) error {
 	bold := t.paint(color.Bold)
 	dim := t.paint(color.Faint)
 	sevPaint := Palette{On: t.Color}.Severities()
 	var b strings.Builder
-	for _, r := range rep.Recipes {
-		fmt.Fprintf(&b, "%s  %s\n", bold(r.Path), dim(r.Recipe))
-		fmt.Fprintf(&b, "    %s\n", Headline(r))
-		for _, a := range r.Adjustments {
-			fmt.Fprintf(&b, "    q.s. %s to pH %g: %s\n", a.Use, a.TargetPH, AdjustAmount(a, r.ConcentrationUnit))
-		}
-		t.findings(&b, r.Findings)
-		b.WriteString("\n")
-	}
 	for i := 0; i < len(rep.Findings); {
 		j := i
 		for j < len(rep.Findings) && rep.Findings[j].Path == rep.Findings[i].Path {

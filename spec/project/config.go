@@ -161,11 +161,16 @@ func mustAbs(p string) string {
 	return a
 }
 
-// MaxFileSize is the largest recipe, catalog or config file read, in bytes.
-var MaxFileSize int64 = 1 << 20
+// DefaultMaxFileSize is the largest recipe, catalog or config file read,
+// in bytes, unless Options.MaxFileSize says otherwise.
+const DefaultMaxFileSize int64 = 1 << 20
 
-// readLimited reads a file refusing anything larger than MaxFileSize.
-func readLimited(path string) ([]byte, error) {
+// readLimited reads a file refusing anything larger than DefaultMaxFileSize.
+func readLimited(path string) ([]byte, error) { return readAtMost(path, DefaultMaxFileSize) }
+
+// readAtMost reads a file refusing anything larger than limit bytes; it
+// checks while reading too, for files that grow or lie about their size.
+func readAtMost(path string, limit int64) ([]byte, error) {
 	f, err := os.Open(path)
 	if err != nil {
 		return nil, fmt.Errorf("cannot read: %v", unwrapPathErr(err))
@@ -178,13 +183,13 @@ func readLimited(path string) ([]byte, error) {
 	if st.IsDir() {
 		return nil, fmt.Errorf("is a directory, not a file")
 	}
-	if st.Size() > MaxFileSize {
-		return nil, fmt.Errorf("file is %d bytes, larger than the %d-byte limit", st.Size(), MaxFileSize)
+	if st.Size() > limit {
+		return nil, fmt.Errorf("file is %d bytes, larger than the %d-byte limit", st.Size(), limit)
 	}
 	buf := make([]byte, 0, st.Size()+1)
 	for {
-		if int64(len(buf)) > MaxFileSize {
-			return nil, fmt.Errorf("file is larger than the %d-byte limit", MaxFileSize)
+		if int64(len(buf)) > limit {
+			return nil, fmt.Errorf("file is larger than the %d-byte limit", limit)
 		}
 		if len(buf) == cap(buf) {
 			buf = append(buf, 0)[:len(buf)]

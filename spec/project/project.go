@@ -1,13 +1,13 @@
 // Package project finds recipe files, groups them by the phgate.yaml that
 // governs them, builds each project's catalog (built-in plus the config's
 // catalog files), indexes recipes by id (duplicates are problems), and
-// evaluates recipes with their stock recipes (`from:`), memoised and with
-// cycle detection.
+// evaluates recipes with their stock recipes (`from:`), with cycle
+// detection.
 package project
 
 import (
 	"fmt"
-	"github.com/phgate/phgate/spec/suggest"
+	"hash/fnv"
 	"io/fs"
 	"os"
 	"path/filepath"
@@ -20,6 +20,7 @@ import (
 	"github.com/phgate/phgate/spec/catalog"
 	"github.com/phgate/phgate/spec/diag"
 	"github.com/phgate/phgate/spec/evaluate"
+	"github.com/phgate/phgate/spec/suggest"
 	"github.com/phgate/phgate/spec/yamldoc"
 )
 
@@ -48,14 +49,6 @@ type Project struct {
 	// Problems in the config or its catalog files.
 	Problems diag.Problems
 	byID     map[string]*File
-	mu       sync.Mutex
-	results  map[string]*outcome
-}
-
-type outcome struct {
-	once     sync.Once
-	res      *evaluate.Result
-	problems diag.Problems
 }
 
 // Run is everything found for one invocation.
@@ -69,17 +62,47 @@ type Run struct {
 
 // Discover finds and loads the recipes under the given paths. A path that
 // names a file must be a recipe; folders are walked recursively.
-func Discover(paths []string) *Run {
+func Discover(paths []string) *Run { return DiscoverWith(paths, Options{}) }
+
+// Options tune discovery; the zero value means the defaults.
+type Options struct {
+	// MaxFileSize is the largest recipe file read, in bytes
+	// (0: DefaultMaxFileSize).
+	MaxFileSize int64
+	// Shard and Shards split the target files deterministically across
+	// CI machines: with Shards = N > 1, only the files whose path hashes
+	// to Shard (1..N) are targets. Every file is still read, so stocks and
+	// duplicate ids resolve the same on every shard.
+	Shard, Shards int
+}
+
+// InShard reports whether a path belongs to shard i of n (1-based), by
+// the FNV-1a hash of its slash-separated form: a file keeps its shard as
+// others are added or removed.
+func InShard(path string, i, n int) bool {
+	if n <= 1 {
+		return true
+	}
+	h := fnv.New32a()
+	h.Write([]byte(filepath.ToSlash(filepath.Clean(path))))
+	return int(h.Sum32()%uint32(n)) == i-1
+}
+
+// DiscoverWith is Discover with options.
+func DiscoverWith(paths []string, opts Options) *Run {
 	if len(paths) == 0 {
 		paths = []string{"."}
 	}
-	d := &discovery{projects: map[string]*Project{}, files: map[string]*File{}, parsed: map[string]*File{}}
+	if opts.MaxFileSize <= 0 {
+		opts.MaxFileSize = DefaultMaxFileSize
+	}
+	d := &discovery{projects: map[string]*Project{}, files: map[string]*File{}, parsed: map[string]*File{}, opts: opts}
 	for _, p := range paths {
 		d.target(filepath.Clean(p))
 	}
 	run := &Run{Skipped: d.skipped}
 	for _, f := range d.files {
-		if f.Target {
+		if f.Target && InShard(f.Path, opts.Shard, opts.Shards) {
 			run.Files = append(run.Files, f)
 		}
 	}
@@ -97,6 +120,7 @@ type discovery struct {
 	// parsed holds files parsed but not yet registered, by absolute path.
 	parsed  map[string]*File
 	skipped int
+	opts    Options
 }
 
 func (d *discovery) target(p string) {
@@ -135,7 +159,7 @@ func (d *discovery) projectFor(dir string) *Project {
 	if p, ok := d.projects[key]; ok {
 		return p
 	}
-	p := &Project{Root: root, byID: map[string]*File{}, results: map[string]*outcome{}}
+	p := &Project{Root: root, byID: map[string]*File{}}
 	d.projects[key] = p
 	p.Config = &Config{Dir: root}
 	if cfgPath != "" {
@@ -237,7 +261,7 @@ func (d *discovery) parseAll(paths []string, p *Project) {
 		go func() {
 			defer wg.Done()
 			for i := range next {
-				parsed[i] = parseFile(todo[i], p)
+				parsed[i] = parseFile(todo[i], p, d.opts.MaxFileSize)
 			}
 		}()
 	}
@@ -282,9 +306,9 @@ func (p *Project) included(rel string) bool {
 
 // parseFile reads, decodes and validates one file; it touches no shared
 // state, so files parse in parallel.
-func parseFile(path string, p *Project) *File {
+func parseFile(path string, p *Project, limit int64) *File {
 	f := &File{Path: path, project: p}
-	data, err := readLimited(path)
+	data, err := readAtMost(path, limit)
 	if err != nil {
 		f.Problems = diag.Problems{{Path: path, Message: err.Error()}}
 		return f
@@ -305,7 +329,7 @@ func parseFile(path string, p *Project) *File {
 // load parses one file (once) and registers it.
 func (d *discovery) load(path string, named bool, p *Project) *File {
 	if _, seen := d.files[mustAbs(path)]; !seen && d.parsed[mustAbs(path)] == nil {
-		d.parsed[mustAbs(path)] = parseFile(path, p)
+		d.parsed[mustAbs(path)] = parseFile(path, p, d.opts.MaxFileSize)
 	}
 	return d.register(path, named, p)
 }
@@ -348,7 +372,9 @@ func (d *discovery) register(path string, named bool, p *Project) *File {
 func (f *File) Project() *Project { return f.project }
 
 // Evaluate solves a file's recipe with its stocks. It is safe for
-// concurrent use; each recipe is solved once.
+// concurrent use. Results are not kept: a stock recipe is solved again for
+// each recipe that uses it (cheap next to parsing), so memory does not grow
+// with the number of recipes checked.
 func (f *File) Evaluate() (*evaluate.Result, diag.Problems) {
 	if f.Recipe == nil {
 		return nil, f.Problems
@@ -365,20 +391,7 @@ func (p *Project) evaluate(f *File, chain []string) (*evaluate.Result, diag.Prob
 				Message: "stock recipes form a cycle: " + strings.Join(cycle, " → ")}}
 		}
 	}
-	chain = append(chain, id)
-	if len(chain) > 1 {
-		// Inside a stock chain: no memo, so the cycle check sees the chain.
-		return p.evaluateNow(f, chain)
-	}
-	p.mu.Lock()
-	o, ok := p.results[id]
-	if !ok {
-		o = &outcome{}
-		p.results[id] = o
-	}
-	p.mu.Unlock()
-	o.once.Do(func() { o.res, o.problems = p.evaluateNow(f, chain) })
-	return o.res, o.problems
+	return p.evaluateNow(f, append(chain, id))
 }
 
 func (p *Project) evaluateNow(f *File, chain []string) (*evaluate.Result, diag.Problems) {
