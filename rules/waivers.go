@@ -232,3 +232,19 @@ func staleFinding(fs []Finding, s *Settings, w spec.Waiver, pos spec.Pos, msg, f
 	}
 	return append(fs, Finding{Rule: staleWaiver.Name, Severity: c.Severity, Message: msg, Path: w.Path, Line: pos.Line, Column: pos.Column, Fix: fix})
 }
+
+// BufferCapacityMinimum is the weak-buffer rule's minimum for recipe r,
+// with the project's and the recipe's own settings applied, in mol/L per
+// pH (charts draw it as the minimum line).
+func (p *Policy) BufferCapacityMinimum(r *spec.Recipe) float64 {
+	s, ps := p.settings.Apply(r.Rules, r.Path)
+	if len(ps) > 0 {
+		s = p.settings
+	}
+	if c := s.Rule(weakBuffer.Name); c != nil {
+		if v, ok := c.values.(*weakBufferSettings); ok {
+			return v.Minimum / 1000
+		}
+	}
+	return weakBuffer.Defaults.(weakBufferSettings).Minimum / 1000
+}

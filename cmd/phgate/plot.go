@@ -41,11 +41,11 @@ func (a *App) plot(args []string) int {
 	if err != nil {
 		return a.fail("%v", err)
 	}
-	res, status := a.solveOne(paths[0])
+	res, minCap, status := a.solveOne(paths[0])
 	if res == nil {
 		return status
 	}
-	c, err := chart.Build(res, k, chart.Options{Titrant: *titrant})
+	c, err := chart.Build(res, k, chart.Options{Titrant: *titrant, MinCapacity: minCap})
 	if err != nil {
 		return a.fail("%s: %v", paths[0], err)
 	}
@@ -76,23 +76,24 @@ func chartSize(width, height string, dpi int) (chart.Size, error) {
 	return s, nil
 }
 
-// solveOne loads and solves one recipe file; on failure it prints the
+// solveOne loads and solves one recipe file and returns it with the
+// weak-buffer minimum that applies to it; on failure it prints the
 // problems and returns a nil result with the exit status.
-func (a *App) solveOne(path string) (*evaluate.Result, int) {
+func (a *App) solveOne(path string) (*evaluate.Result, float64, int) {
 	run := project.Discover([]string{path})
-	for _, p := range run.Projects {
-		if len(p.Problems) > 0 {
-			return nil, a.problems(p.Problems)
-		}
+	pols, ps := policies(run)
+	if len(ps) > 0 {
+		return nil, 0, a.problems(ps)
 	}
 	if len(run.Files) != 1 || run.Files[0].Recipe == nil && len(run.Files[0].Problems) == 0 {
-		return nil, a.fail("%s: not a recipe file", path)
+		return nil, 0, a.fail("%s: not a recipe file", path)
 	}
-	res, ps := run.Files[0].Evaluate()
+	file := run.Files[0]
+	res, ps := file.Evaluate()
 	if len(ps) > 0 {
-		return nil, a.problems(ps)
+		return nil, 0, a.problems(ps)
 	}
-	return res, ExitOK
+	return res, pols[file.Project()].BufferCapacityMinimum(res.Recipe), ExitOK
 }
 
 // writeOutput writes the finished output in one go, so a failed run

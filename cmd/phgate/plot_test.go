@@ -27,7 +27,7 @@ func TestPlotSVG(t *testing.T) {
 	}{
 		{"titration", []string{"tris-wash-cold · titration curve", "pH with hydrochloric-acid", "as made: pH 7.50", "target pH 7.20–8.30", "pKa at 25 °C"}},
 		{"species", []string{"TrisH+", "Tris", "recipe pH"}},
-		{"capacity", []string{"buffer capacity", "minimum capacity (common practice)"}},
+		{"capacity", []string{"buffer capacity", "minimum capacity (weak-buffer rule)"}},
 		{"temperature", []string{"pH of the product as made", "temperature (°C)"}},
 	}
 	for _, tc := range tests {
@@ -125,5 +125,23 @@ func TestPlotErrors(t *testing.T) {
 	}
 	if entries, _ := os.ReadDir(dir); len(entries) != 0 {
 		t.Errorf("failed runs left files: %v", entries)
+	}
+}
+
+// TestCapacityChartUsesTheRecipesMinimum: the eye rinse sets its own
+// weak-buffer minimum (2 mM per pH), and its capacity chart draws that
+// line rather than the rule's default of 5.
+func TestCapacityChartUsesTheRecipesMinimum(t *testing.T) {
+	out := filepath.Join(t.TempDir(), "cap.svg")
+	code, _, stderr := chartRun("plot", "../../examples/recipes/ophthalmic/eye-rinse.yaml", "--kind", "capacity", "-o", out)
+	if code != ExitOK {
+		t.Fatalf("exit %d: %s", code, stderr)
+	}
+	data, err := os.ReadFile(out)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !bytes.Contains(data, []byte("minimum 2 mmol/L per pH")) {
+		t.Errorf("the chart does not draw the recipe's own minimum of 2 mmol/L per pH")
 	}
 }

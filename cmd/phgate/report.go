@@ -44,7 +44,7 @@ func (a *App) report(args []string) int {
 			problems = append(problems, ps...)
 			continue
 		}
-		charts, err := chart.All(res, chart.Options{})
+		charts, err := chart.All(res, chart.Options{MinCapacity: pols[file.Project()].BufferCapacityMinimum(res.Recipe)})
 		if err != nil {
 			problems = append(problems, diag.Problem{Path: file.Path, Message: "cannot compute the charts: " + err.Error()})
 			continue

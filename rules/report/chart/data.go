@@ -22,13 +22,10 @@ const (
 	DefaultBase = "sodium-hydroxide"
 )
 
-// defaultMinCapacity is the buffer capacity (mol/L per pH) below which a
-// product is commonly called weakly buffered: 5 mM per pH (common practice).
+// defaultMinCapacity is the buffer capacity (mol/L per pH) drawn when the
+// caller gives none: the weak-buffer rule's default of 5 mM per pH
+// (common practice).
 const defaultMinCapacity = 0.005
-
-// MinimumCapacity returns the buffer capacity (mol/L per pH) drawn as the
-// minimum line on the capacity chart of res.
-func MinimumCapacity(res *evaluate.Result) float64 { return defaultMinCapacity }
 
 // minSweep is the smallest titration sweep (mol/L) for a titrant with no
 // q.s. amount to scale from, so that even an unbuffered product shows its
@@ -48,6 +45,10 @@ type Options struct {
 	Titrant string
 	// Points per curve (0: DefaultPoints).
 	Points int
+	// MinCapacity is the minimum buffer capacity line, mol/L per pH (0:
+	// the weak-buffer rule's default); callers pass the rule's setting
+	// for the recipe.
+	MinCapacity float64
 }
 
 func (o Options) points() int {
@@ -395,7 +396,10 @@ func buildCapacity(res *evaluate.Result, opt Options) (*Chart, error) {
 	for i, b := range beta {
 		y[i] = b * 1000
 	}
-	minCap := MinimumCapacity(res) * 1000
+	minCap := defaultMinCapacity * 1000
+	if opt.MinCapacity > 0 {
+		minCap = opt.MinCapacity * 1000
+	}
 	own := res.Equilibrium.BufferCapacity * 1000
 	u := concUnit(res)
 	lo := math.Min(own, minCap)
@@ -409,7 +413,7 @@ func buildCapacity(res *evaluate.Result, opt Options) (*Chart, error) {
 			Min: math.Pow(10, math.Floor(math.Log10(lo))-1), Max: math.Pow(10, math.Ceil(math.Log10(hi)))},
 		Series: []Series{{Label: "buffer capacity", X: phs, Y: y}},
 		Bands:  windowBand(r, true),
-		Refs: []Ref{{Text: fmt.Sprintf("minimum %g mmol/%s per pH", minCap, u), Legend: "minimum capacity (common practice)",
+		Refs: []Ref{{Text: fmt.Sprintf("minimum %g mmol/%s per pH", minCap, u), Legend: "minimum capacity (weak-buffer rule)",
 			At: minCap, Style: Limit}},
 		Marks: []Mark{{Label: fmt.Sprintf("as made: %.3g mmol/%s per pH", own, u), X: res.Equilibrium.PH, Y: own}},
 	}
