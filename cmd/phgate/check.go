@@ -37,7 +37,9 @@ func (a *App) check(args []string) int {
 	if *jobs < 1 {
 		return a.fail("--jobs must be at least 1")
 	}
-	var opts project.Options
+	// check parses each recipe when it solves it and keeps nothing but the
+	// tally, so memory stays flat on large repositories.
+	opts := project.Options{Lazy: true}
 	if *shard != "" {
 		if opts.Shard, opts.Shards, err = parseShard(*shard); err != nil {
 			return a.fail("--shard: %v", err)

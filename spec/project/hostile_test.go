@@ -1,6 +1,7 @@
 package project
 
 import (
+	"github.com/phgate/phgate/spec"
 	"os"
 	"path/filepath"
 	"strings"
@@ -58,6 +59,12 @@ func TestHostileFiles(t *testing.T) {
 }
 
 func TestFolderWalk(t *testing.T) {
+	for _, lazy := range []bool{false, true} {
+		t.Run(map[bool]string{false: "parsed", true: "lazy"}[lazy], func(t *testing.T) { testFolderWalk(t, lazy) })
+	}
+}
+
+func testFolderWalk(t *testing.T, lazy bool) {
 	dir := t.TempDir()
 	write(t, dir, "a.yaml", []byte(strings.ReplaceAll(goodRecipe, "%s", "alpha")))
 	write(t, dir, "sub/b.yml", []byte(strings.ReplaceAll(goodRecipe, "%s", "beta")))
@@ -71,7 +78,7 @@ func TestFolderWalk(t *testing.T) {
 	if err := os.Symlink(filepath.Join(dir, "missing.yaml"), filepath.Join(dir, "dangling.yaml")); err != nil {
 		t.Fatal(err)
 	}
-	run := Discover([]string{dir})
+	run := DiscoverWith([]string{dir}, Options{Lazy: lazy})
 	if run.Skipped != 1 {
 		t.Errorf("skipped = %d, want 1 (notes.yaml)", run.Skipped)
 	}
@@ -112,11 +119,62 @@ func TestStockCycle(t *testing.T) {
 	dir := t.TempDir()
 	write(t, dir, "a.yaml", []byte("recipe: a\nbasis: 1 L\ningredients:\n  - from: b\n    amount: 10 mL\n"))
 	write(t, dir, "b.yaml", []byte("recipe: b\nbasis: 1 L\ningredients:\n  - from: a\n    amount: 10 mL\n"))
-	run := Discover([]string{dir})
+	run := DiscoverWith([]string{dir}, Options{Lazy: true})
 	for _, f := range run.Files {
 		_, ps := f.Evaluate()
 		if !strings.Contains(ps.Error(), "cycle") {
 			t.Errorf("%s: problems %q do not name the cycle", f.Path, ps.Error())
+		}
+	}
+}
+
+func TestScanID(t *testing.T) {
+	cases := []struct {
+		name, src string
+		id        string
+		pos       spec.Pos
+		ok        bool
+	}{
+		{"plain", "# comment\nrecipe: wash-buffer-a\nbasis: 1 L\n", "wash-buffer-a", spec.Pos{Line: 2, Column: 9}, true},
+		{"quoted with comment", "recipe: \"stock-0.5m\"   # the stock\r\n", "stock-0.5m", spec.Pos{Line: 1, Column: 9}, true},
+		{"BOM", "\ufeffrecipe: a\n", "a", spec.Pos{Line: 1, Column: 9}, true},
+		{"indented is not top level", "x:\n  recipe: a\n", "", spec.Pos{}, false},
+		{"flow style falls back", "{recipe: a, ingredients: []}\n", "", spec.Pos{}, false},
+		{"anchor falls back", "recipe: &r a\n", "", spec.Pos{}, false},
+		{"upper case falls back to the full parse", "recipe: Wash\n", "", spec.Pos{}, false},
+		{"empty", "recipe:\n", "", spec.Pos{}, false},
+	}
+	for _, tc := range cases {
+		t.Run(tc.name, func(t *testing.T) {
+			id, pos, ok := scanID([]byte(tc.src))
+			if id != tc.id || pos != tc.pos || ok != tc.ok {
+				t.Errorf("scanID = %q %+v %v, want %q %+v %v", id, pos, ok, tc.id, tc.pos, tc.ok)
+			}
+		})
+	}
+}
+
+// TestLazyMatchesParsed solves the example repository both ways and
+// expects the same pH for every recipe.
+func TestLazyMatchesParsed(t *testing.T) {
+	ph := func(lazy bool) map[string]float64 {
+		out := map[string]float64{}
+		for _, f := range DiscoverWith([]string{"../../examples"}, Options{Lazy: lazy}).Files {
+			res, ps := f.Evaluate()
+			if len(ps) > 0 {
+				t.Fatalf("%s: %v", f.Path, ps)
+			}
+			out[f.Path] = res.Equilibrium.PH
+		}
+		return out
+	}
+	a, b := ph(false), ph(true)
+	if len(a) < 8 || len(a) != len(b) {
+		t.Fatalf("parsed %d, lazy %d recipes", len(a), len(b))
+	}
+	for k, v := range a {
+		if b[k] != v {
+			t.Errorf("%s: pH %v parsed, %v lazy", k, v, b[k])
 		}
 	}
 }

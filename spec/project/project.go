@@ -38,6 +38,12 @@ type File struct {
 	// named folder), as opposed to files read only to resolve stocks.
 	Target  bool
 	project *Project
+	// lazy files were indexed from their id line only (Options.Lazy);
+	// their recipe is parsed when evaluated and not kept.
+	lazy  bool
+	id    string
+	idPos spec.Pos
+	limit int64
 }
 
 // Project is the set of recipes governed by one phgate.yaml (or, without
@@ -74,6 +80,11 @@ type Options struct {
 	// to Shard (1..N) are targets. Every file is still read, so stocks and
 	// duplicate ids resolve the same on every shard.
 	Shard, Shards int
+	// Lazy indexes recipe files by their top-level `recipe:` line only and
+	// parses each recipe when it is evaluated, without keeping it: memory
+	// stays flat however many recipes a run checks. File.Recipe is then
+	// nil; problems in a file appear when it is evaluated.
+	Lazy bool
 }
 
 // InShard reports whether a path belongs to shard i of n (1-based), by
@@ -261,7 +272,11 @@ func (d *discovery) parseAll(paths []string, p *Project) {
 		go func() {
 			defer wg.Done()
 			for i := range next {
-				parsed[i] = parseFile(todo[i], p, d.opts.MaxFileSize)
+				if d.opts.Lazy {
+					parsed[i] = indexFile(todo[i], p, d.opts.MaxFileSize)
+				} else {
+					parsed[i] = parseFile(todo[i], p, d.opts.MaxFileSize)
+				}
 			}
 		}()
 	}
@@ -326,6 +341,53 @@ func parseFile(path string, p *Project, limit int64) *File {
 	return f
 }
 
+// indexFile reads a file's recipe id from its top-level `recipe:` line
+// without parsing the rest; a file where that line cannot be found for
+// sure (flow style, anchors, no such line) is parsed in full instead.
+func indexFile(path string, p *Project, limit int64) *File {
+	data, err := readAtMost(path, limit)
+	if err != nil {
+		return &File{Path: path, project: p, Problems: diag.Problems{{Path: path, Message: err.Error()}}}
+	}
+	id, pos, ok := scanID(data)
+	if !ok {
+		return parseFile(path, p, limit)
+	}
+	return &File{Path: path, project: p, lazy: true, id: id, idPos: pos, limit: limit}
+}
+
+// scanID finds a plain `recipe: ID` line at the top level of a block-style
+// YAML document: no indentation, an id of kebab-case characters, at most
+// a quote pair and a trailing comment. The full parse at evaluation time
+// confirms it.
+func scanID(data []byte) (string, spec.Pos, bool) {
+	text := strings.TrimPrefix(string(data), "\ufeff")
+	for n, line := range strings.Split(text, "\n") {
+		if !strings.HasPrefix(line, "recipe:") {
+			continue
+		}
+		rest := strings.TrimRight(line[len("recipe:"):], "\r")
+		if i := strings.Index(rest, " #"); i >= 0 {
+			rest = rest[:i]
+		}
+		val := strings.TrimSpace(rest)
+		col := len("recipe:") + len(rest) - len(strings.TrimLeft(rest, " \t")) + 1
+		if len(val) >= 2 && (val[0] == '"' || val[0] == '\'') && val[len(val)-1] == val[0] {
+			val = val[1 : len(val)-1]
+		}
+		for _, r := range val {
+			if !(r >= 'a' && r <= 'z' || r >= '0' && r <= '9' || r == '-' || r == '.') {
+				return "", spec.Pos{}, false
+			}
+		}
+		if val == "" {
+			return "", spec.Pos{}, false
+		}
+		return val, spec.Pos{Line: n + 1, Column: col}, true
+	}
+	return "", spec.Pos{}, false
+}
+
 // load parses one file (once) and registers it.
 func (d *discovery) load(path string, named bool, p *Project) *File {
 	if _, seen := d.files[mustAbs(path)]; !seen && d.parsed[mustAbs(path)] == nil {
@@ -347,25 +409,53 @@ func (d *discovery) register(path string, named bool, p *Project) *File {
 	if f.Skipped && !named {
 		d.skipped++
 	}
-	r := f.Recipe
-	if r == nil {
+	id, pos, ok := f.identity()
+	if !ok {
 		return f
 	}
-	if other, dup := p.byID[r.ID.Value]; dup && other != f {
+	if other, dup := p.byID[id]; dup && other != f {
 		// Both files are wrong until one is renamed: neither is checked,
 		// and each names the other.
-		f.Problems = append(f.Problems, diag.Problem{Path: path, Line: r.ID.Pos.Line, Column: r.ID.Pos.Column,
-			Message: fmt.Sprintf("recipe id %q is also used by %s", r.ID.Value, other.Path)})
-		f.Recipe = nil
-		if other.Recipe != nil {
-			other.Problems = append(other.Problems, diag.Problem{Path: other.Path, Line: other.Recipe.ID.Pos.Line, Column: other.Recipe.ID.Pos.Column,
-				Message: fmt.Sprintf("recipe id %q is also used by %s", r.ID.Value, path)})
-			other.Recipe = nil
+		f.Problems = append(f.Problems, diag.Problem{Path: path, Line: pos.Line, Column: pos.Column,
+			Message: fmt.Sprintf("recipe id %q is also used by %s", id, other.Path)})
+		f.Recipe, f.lazy = nil, false
+		if _, opos, ok := other.identity(); ok {
+			other.Problems = append(other.Problems, diag.Problem{Path: other.Path, Line: opos.Line, Column: opos.Column,
+				Message: fmt.Sprintf("recipe id %q is also used by %s", id, path)})
+			other.Recipe, other.lazy = nil, false
 		}
 		return f
 	}
-	p.byID[r.ID.Value] = f
+	p.byID[id] = f
 	return f
+}
+
+// identity is the recipe id of a file and its position, if it has one.
+func (f *File) identity() (string, spec.Pos, bool) {
+	switch {
+	case f.Recipe != nil:
+		return f.Recipe.ID.Value, f.Recipe.ID.Pos, true
+	case f.lazy:
+		return f.id, f.idPos, true
+	}
+	return "", spec.Pos{}, false
+}
+
+// recipe returns the file's recipe, parsing it now for a lazy file (the
+// result is not kept).
+func (f *File) recipe() (*spec.Recipe, diag.Problems) {
+	if !f.lazy {
+		return f.Recipe, f.Problems
+	}
+	full := parseFile(f.Path, f.project, f.limit)
+	if full.Recipe == nil {
+		return nil, full.Problems
+	}
+	if full.Recipe.ID.Value != f.id {
+		return nil, diag.Problems{{Path: f.Path, Line: f.idPos.Line, Column: f.idPos.Column,
+			Message: fmt.Sprintf("the recipe id read from the file (%q) differs from its recipe: line (%q); write recipe: as a plain top-level key", full.Recipe.ID.Value, f.id)}}
+	}
+	return full.Recipe, nil
 }
 
 // Project returns the project a file belongs to.
@@ -376,26 +466,26 @@ func (f *File) Project() *Project { return f.project }
 // each recipe that uses it (cheap next to parsing), so memory does not grow
 // with the number of recipes checked.
 func (f *File) Evaluate() (*evaluate.Result, diag.Problems) {
-	if f.Recipe == nil {
-		return nil, f.Problems
+	r, ps := f.recipe()
+	if r == nil {
+		return nil, ps
 	}
-	return f.project.evaluate(f, nil)
+	return f.project.evaluate(f, r, nil)
 }
 
-func (p *Project) evaluate(f *File, chain []string) (*evaluate.Result, diag.Problems) {
-	id := f.Recipe.ID.Value
+func (p *Project) evaluate(f *File, r *spec.Recipe, chain []string) (*evaluate.Result, diag.Problems) {
+	id := r.ID.Value
 	for i, c := range chain {
 		if c == id {
 			cycle := append(append([]string{}, chain[i:]...), id)
-			return nil, diag.Problems{{Path: f.Path, Line: f.Recipe.ID.Pos.Line, Column: f.Recipe.ID.Pos.Column,
+			return nil, diag.Problems{{Path: f.Path, Line: r.ID.Pos.Line, Column: r.ID.Pos.Column,
 				Message: "stock recipes form a cycle: " + strings.Join(cycle, " → ")}}
 		}
 	}
-	return p.evaluateNow(f, append(chain, id))
+	return p.evaluateNow(f, r, append(chain, id))
 }
 
-func (p *Project) evaluateNow(f *File, chain []string) (*evaluate.Result, diag.Problems) {
-	r := f.Recipe
+func (p *Project) evaluateNow(f *File, r *spec.Recipe, chain []string) (*evaluate.Result, diag.Problems) {
 	cat := p.Catalog
 	if r.Catalog != nil {
 		inline, ps := catalog.FromNodeWithBase(r.Catalog, f.Path, cat)
@@ -417,11 +507,12 @@ func (p *Project) evaluateNow(f *File, chain []string) (*evaluate.Result, diag.P
 			}
 			return nil, &diag.Problem{Path: f.Path, Line: at.Line, Column: at.Column, Message: msg}
 		}
-		if sf.Recipe == nil {
+		sr, ps := sf.recipe()
+		if sr == nil {
 			return nil, &diag.Problem{Path: f.Path, Line: at.Line, Column: at.Column,
-				Message: fmt.Sprintf("stock recipe %q cannot be used: %s", stockID, sf.Problems[0].Error())}
+				Message: fmt.Sprintf("stock recipe %q cannot be used: %s", stockID, ps[0].Error())}
 		}
-		res, ps := p.evaluate(sf, chain)
+		res, ps := p.evaluate(sf, sr, chain)
 		if len(ps) > 0 {
 			msg := fmt.Sprintf("stock recipe %q cannot be used: %s", stockID, ps[0].Error())
 			if strings.Contains(ps[0].Message, "cycle") {
