@@ -68,14 +68,6 @@ applies under the ideal model, which is worse at every ionic strength.`,
 		}
 		p.Report(pos, "confirm the pH by measurement, or check the diluted product as its own recipe",
 			"ionic strength %.3g %s is above %g %s, where the %s activity model is no longer reliable; %s contributes the most (about %.2g %s)",
-			eq.IonicStrength, concLabel(res), max, concLabel(res), modelName(res.Mixture.Activity), label, bestI, concLabel(res))
+			eq.IonicStrength, concLabel(res), max, concLabel(res), res.Mixture.Activity.Title(), label, bestI, concLabel(res))
 	},
-}
-
-// modelName is the activity model as named in prose.
-func modelName(m solver.ActivityModel) string {
-	if m == solver.Davies {
-		return "Davies"
-	}
-	return m.String()
 }

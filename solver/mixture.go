@@ -22,6 +22,14 @@ func (m ActivityModel) String() string {
 	return "unknown"
 }
 
+// Title returns the model's name as written in prose ("Davies", "ideal").
+func (m ActivityModel) Title() string {
+	if m == Davies {
+		return "Davies"
+	}
+	return m.String()
+}
+
 // System is one acid–base system (a weak acid or base and all its
 // protonation states), e.g. phosphate: H3PO4, H2PO4−, HPO4²−, PO4³−.
 type System struct {

@@ -130,7 +130,7 @@ func concUnit(res *evaluate.Result) string {
 }
 
 func conditions(res *evaluate.Result) string {
-	return fmt.Sprintf("%g °C, %s activities", res.Recipe.Temperature.Nominal, res.Mixture.Activity)
+	return fmt.Sprintf("%g °C, %s activities", res.Recipe.Temperature.Nominal, res.Mixture.Activity.Title())
 }
 
 // perBatch returns the batch size per-batch amounts refer to and how the
@@ -449,7 +449,7 @@ func buildTemperature(res *evaluate.Result, opt Options) (*Chart, error) {
 	}
 	p.Y.Min, p.Y.Max = tempPHRange(r, ph)
 	return &Chart{Kind: Temperature, Recipe: r.ID.Value, Title: r.ID.Value + " · pH against temperature",
-		Subtitle: note + " · amounts as made · " + res.Mixture.Activity.String() + " activities", Panels: []Panel{p}}, nil
+		Subtitle: note + " · amounts as made · " + res.Mixture.Activity.Title() + " activities", Panels: []Panel{p}}, nil
 }
 
 // tempPHRange covers the curve and the window on tenths of a pH unit, at
