@@ -109,6 +109,15 @@ func (a *App) runCheck(paths []string, opts project.Options, jobs int, f report.
 	rep := &report.Report{}
 	pols, ps := policies(run)
 	rep.Problems = append(rep.Problems, ps...)
+	if len(run.Files) == 0 && opts.Shards <= 1 {
+		// A check that found nothing to check is almost always a wrong
+		// path or glob; CI should not pass it silently.
+		where := strings.Join(paths, ", ")
+		if where == "" {
+			where = "."
+		}
+		rep.Problems = append(rep.Problems, diag.Problem{Path: where, Message: "no recipe files found (a recipe is a YAML file with a top-level recipe: key)"})
+	}
 	stream, streaming := f.(report.Streamer)
 
 	type outcome struct {
