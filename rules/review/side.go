@@ -90,7 +90,9 @@ func Load(label, root string, paths []string, rulesFor RulesFor) *Side {
 	if len(paths) == 0 {
 		return s
 	}
-	run := project.Discover(paths)
+	// Two versions of one recipe may sit side by side in one project: the
+	// file named on this side wins over its twin.
+	run := project.DiscoverWith(paths, project.Options{PreferTargets: true})
 	policies := map[*project.Project]Rules{}
 	for _, p := range run.Projects {
 		s.Problems = append(s.Problems, s.relProblems(p.Problems)...)

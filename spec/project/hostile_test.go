@@ -178,3 +178,22 @@ func TestLazyMatchesParsed(t *testing.T) {
 		}
 	}
 }
+
+// TestPreferTargets: two versions of one recipe side by side are a
+// duplicate for check, but the named one wins when the caller asks.
+func TestPreferTargets(t *testing.T) {
+	dir := t.TempDir()
+	recipe := strings.ReplaceAll(goodRecipe, "%s", "twin")
+	old := write(t, dir, "twin.yaml", []byte(recipe))
+	write(t, dir, "twin-new.yaml", []byte(recipe))
+	if _, ps := Discover([]string{old}).Files[0].Evaluate(); len(ps) == 0 {
+		t.Errorf("a reused id is not reported without PreferTargets")
+	}
+	run := DiscoverWith([]string{old}, Options{PreferTargets: true})
+	if len(run.Files) != 1 || run.Files[0].Path != old {
+		t.Fatalf("files = %v", run.Files)
+	}
+	if _, ps := run.Files[0].Evaluate(); len(ps) > 0 {
+		t.Errorf("the named twin is not checked: %v", ps)
+	}
+}

@@ -40,10 +40,13 @@ type File struct {
 	project *Project
 	// lazy files were indexed from their id line only (Options.Lazy);
 	// their recipe is parsed when evaluated and not kept.
-	lazy  bool
-	id    string
-	idPos spec.Pos
-	limit int64
+	lazy bool
+	// shadowed files share their id with a file the caller named
+	// (Options.PreferTargets) and take no part in the run.
+	shadowed bool
+	id       string
+	idPos    spec.Pos
+	limit    int64
 }
 
 // Project is the set of recipes governed by one phgate.yaml (or, without
@@ -85,6 +88,12 @@ type Options struct {
 	// stays flat however many recipes a run checks. File.Recipe is then
 	// nil; problems in a file appear when it is evaluated.
 	Lazy bool
+	// PreferTargets resolves a recipe id used twice when exactly one of
+	// the two files lies under a path the caller named: that one is used
+	// and the other is left out of the index, without a problem. phgate
+	// diff uses it to compare two versions of a recipe kept side by side
+	// in one project.
+	PreferTargets bool
 }
 
 // InShard reports whether a path belongs to shard i of n (1-based), by
@@ -109,11 +118,14 @@ func DiscoverWith(paths []string, opts Options) *Run {
 	}
 	d := &discovery{projects: map[string]*Project{}, files: map[string]*File{}, parsed: map[string]*File{}, opts: opts}
 	for _, p := range paths {
+		d.targets = append(d.targets, mustAbs(p))
+	}
+	for _, p := range paths {
 		d.target(filepath.Clean(p))
 	}
 	run := &Run{Skipped: d.skipped}
 	for _, f := range d.files {
-		if f.Target && InShard(f.Path, opts.Shard, opts.Shards) {
+		if f.Target && !f.shadowed && InShard(f.Path, opts.Shard, opts.Shards) {
 			run.Files = append(run.Files, f)
 		}
 	}
@@ -132,6 +144,19 @@ type discovery struct {
 	parsed  map[string]*File
 	skipped int
 	opts    Options
+	// targets are the absolute paths the caller named.
+	targets []string
+}
+
+// targeted reports whether path is, or lies under, a path the caller named.
+func (d *discovery) targeted(path string) bool {
+	abs := mustAbs(path)
+	for _, t := range d.targets {
+		if abs == t || strings.HasPrefix(abs, t+string(filepath.Separator)) {
+			return true
+		}
+	}
+	return false
 }
 
 func (d *discovery) target(p string) {
@@ -411,6 +436,15 @@ func (d *discovery) register(path string, named bool, p *Project) *File {
 	}
 	id, pos, ok := f.identity()
 	if !ok {
+		return f
+	}
+	if other, dup := p.byID[id]; dup && other != f && d.opts.PreferTargets && d.targeted(path) != d.targeted(other.Path) {
+		if d.targeted(path) {
+			p.byID[id] = f
+			other.shadowed = true
+		} else {
+			f.shadowed = true
+		}
 		return f
 	}
 	if other, dup := p.byID[id]; dup && other != f {
