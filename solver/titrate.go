@@ -86,12 +86,13 @@ func Titrate(m Mixture, t Component, targetPH float64) (*Titration, error) {
 	}
 	if !touchesComplex(&m, &t) {
 		// A failure of the fast path is not final: the bracketed search
-		// below needs nothing from it.
+		// below needs nothing from it. Nor is a linear amount outside
+		// [0, MaxTitrant]: far beyond Davies' range (I of several mol/L)
+		// the pH need not be monotonic in the amount, so that root can lie
+		// outside while another lies inside. The bracketed search decides,
+		// and reports the range when the target is outside it.
 		amount, ok, err := titrateLinear(&m, &t, targetPH)
-		if err == nil && (amount < 0 || amount > MaxTitrant) {
-			return nil, unreachable(m, t, targetPH, eq0.PH)
-		}
-		if err == nil && ok {
+		if err == nil && ok && amount >= 0 && amount <= MaxTitrant {
 			eq, err := Solve(m.With(t, amount))
 			if err == nil && math.Abs(eq.PH-targetPH) <= titratePHTol {
 				return &Titration{Amount: amount, Equilibrium: eq}, nil
@@ -225,15 +226,6 @@ func titrateBracketed(m Mixture, t Component, targetPH, ph0 float64) (*Titration
 		}
 	}
 	return nil, &ConvergenceError{Stage: "titration", Iterations: maxTitrateIter, Residual: hi - lo}
-}
-
-// unreachable builds the UnreachableError, solving the far end of the range.
-func unreachable(m Mixture, t Component, target, ph0 float64) error {
-	amount, eq, err := farEnd(m, t)
-	if err != nil {
-		return err
-	}
-	return rangeError(t, target, ph0, eq.PH, amount)
 }
 
 func rangeError(t Component, target, ph0, phFar, amount float64) error {

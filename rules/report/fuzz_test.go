@@ -3,6 +3,7 @@ package report_test
 import (
 	"bytes"
 	"encoding/json"
+	"fmt"
 	"math"
 	"os"
 	"path/filepath"
@@ -56,57 +57,101 @@ func FuzzPipeline(f *testing.F) {
 	for _, s := range pipelineStart {
 		f.Add([]byte(s))
 	}
-	base := catalog.Default()
 	f.Fuzz(func(t *testing.T, data []byte) {
-		r, ps := spec.LoadRecipe(data, "fuzz.yaml")
-		if (r == nil) == (len(ps) == 0) {
-			t.Fatalf("recipe %v with problems %v", r != nil, ps)
-		}
-		if r == nil {
-			checkProblems(t, data, ps)
-			return
-		}
-		cat := base
-		if r.Catalog != nil {
-			inline, ps := catalog.FromNodeWithBase(r.Catalog, r.Path, base)
-			if len(ps) > 0 {
-				checkProblems(t, data, ps)
-				return
-			}
-			merged, err := base.Merge(inline)
-			if err != nil {
-				return
-			}
-			cat = merged
-		}
-		lookup := func(id string, at spec.Pos) (*evaluate.Result, *diag.Problem) {
-			return nil, &diag.Problem{Path: r.Path, Line: at.Line, Column: at.Column, Message: "no stock recipes while fuzzing"}
-		}
-		res, ps := evaluate.Evaluate(r, cat, lookup)
-		if (res == nil) == (len(ps) == 0) {
-			t.Fatalf("result %v with problems %v", res != nil, ps)
-		}
-		if res == nil {
-			checkProblems(t, data, ps)
-			return
-		}
-		checkResult(t, res)
-		findings := rules.Check(res)
-		for _, fd := range findings {
-			if fd.Message == "" || fd.Line <= 0 {
-				t.Fatalf("finding without message or position: %+v", fd)
-			}
-			checkText(t, data, "finding", fd.Message)
-		}
-		rep := report.Build(res, findings)
-		out, err := json.Marshal(rep)
-		if err != nil {
-			t.Fatalf("marshal report: %v", err)
-		}
-		if !json.Valid(out) {
-			t.Fatalf("invalid JSON %s", out)
-		}
+		checkPipeline(t, data)
 	})
+}
+
+// FuzzPipelineMixture writes well-formed recipes from random numbers, so
+// the fuzzer spends its time on the numerics rather than on YAML syntax:
+// up to three catalog ingredients with random amounts, a random
+// temperature, basis and q.s. titrant with a random target pH.
+func FuzzPipelineMixture(f *testing.F) {
+	f.Add(uint8(0), 0.05, uint8(1), uint8(1), 0.025, uint8(0), uint8(2), 1.0, uint8(3), 25.0, uint8(3), 7.4, uint8(1))
+	f.Add(uint8(7), 20.0, uint8(0), uint8(9), 1e-9, uint8(1), uint8(4), 584.4, uint8(2), 95.0, uint8(5), 1.0, uint8(2))
+	f.Add(uint8(3), 1e-12, uint8(4), uint8(30), 30.0, uint8(3), uint8(12), 0.5, uint8(0), 0.0, uint8(200), 14.0, uint8(0))
+	ids := catalog.Default().IDs()
+	units := []string{"M", "mM", "g/L", "% w/w", "mol", "g", "mg/mL", "µM"}
+	bases := []string{"", "basis: 1 L\n", "basis: 1 kg\n", "basis: 250 mL\n"}
+	f.Fuzz(func(t *testing.T, i1 uint8, a1 float64, u1, i2 uint8, a2 float64, u2, i3 uint8, a3 float64, u3 uint8,
+		tempC float64, titrant uint8, target float64, basis uint8) {
+		var b strings.Builder
+		fmt.Fprintf(&b, "recipe: m\n%stemperature: %g C\ningredients:\n", bases[int(basis)%len(bases)], tempC)
+		for _, in := range []struct {
+			i, u uint8
+			a    float64
+		}{{i1, u1, a1}, {i2, u2, a2}, {i3, u3, a3}} {
+			fmt.Fprintf(&b, "  - use: %s\n    amount: %g %s\n", ids[int(in.i)%len(ids)], in.a, units[int(in.u)%len(units)])
+		}
+		// A titrant index past the end of the catalog means no q.s. line.
+		if int(titrant) < len(ids) {
+			fmt.Fprintf(&b, "  - use: %s\n    adjust-to-ph: %g\n", ids[titrant], target)
+		}
+		checkPipeline(t, []byte(b.String()))
+	})
+}
+
+// checkPipeline runs one recipe through load, inline catalog, evaluate,
+// rules and the report and checks every stage's output.
+func checkPipeline(t *testing.T, data []byte) {
+	t.Helper()
+	base := catalog.Default()
+	r, ps := spec.LoadRecipe(data, "fuzz.yaml")
+	if (r == nil) == (len(ps) == 0) {
+		t.Fatalf("recipe %v with problems %v", r != nil, ps)
+	}
+	if r == nil {
+		checkProblems(t, data, ps)
+		return
+	}
+	cat := base
+	if r.Catalog != nil {
+		inline, ps := catalog.FromNodeWithBase(r.Catalog, r.Path, base)
+		if len(ps) > 0 {
+			checkProblems(t, data, ps)
+			return
+		}
+		merged, err := base.Merge(inline)
+		if err != nil {
+			return
+		}
+		cat = merged
+	}
+	lookup := func(id string, at spec.Pos) (*evaluate.Result, *diag.Problem) {
+		return nil, &diag.Problem{Path: r.Path, Line: at.Line, Column: at.Column, Message: "no stock recipes while fuzzing"}
+	}
+	res, ps := evaluate.Evaluate(r, cat, lookup)
+	if (res == nil) == (len(ps) == 0) {
+		t.Fatalf("result %v with problems %v", res != nil, ps)
+	}
+	if res == nil {
+		checkProblems(t, data, ps)
+		return
+	}
+	checkResult(t, res)
+	// The q.s. contract: the product ends at the target pH within 1e-6,
+	// or the target lies outside the reported reachable range.
+	if a := res.Adjustment; a != nil && math.Abs(res.Equilibrium.PH-a.TargetPH) > 1e-6 {
+		t.Fatalf("q.s. to pH %g ended at pH %.9g", a.TargetPH, res.Equilibrium.PH)
+	}
+	if u := res.Unreachable; u != nil && u.Target >= u.MinPH && u.Target <= u.MaxPH {
+		t.Fatalf("pH %g reported unreachable inside its range %g..%g", u.Target, u.MinPH, u.MaxPH)
+	}
+	findings := rules.Check(res)
+	for _, fd := range findings {
+		if fd.Message == "" || fd.Line <= 0 {
+			t.Fatalf("finding without message or position: %+v", fd)
+		}
+		checkText(t, data, "finding", fd.Message)
+	}
+	rep := report.Build(res, findings)
+	out, err := json.Marshal(rep)
+	if err != nil {
+		t.Fatalf("marshal report: %v", err)
+	}
+	if !json.Valid(out) {
+		t.Fatalf("invalid JSON %s", out)
+	}
 }
 
 // checkProblems requires a message on every problem, and no "NaN" or
