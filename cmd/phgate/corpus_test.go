@@ -42,7 +42,7 @@ var corpusExtras = []struct {
 }
 
 // writeCorpus writes n generated recipes (6–8 ingredients, one q.s. each)
-// into dir, deterministically from the seed value.
+// into dir, deterministically (a fixed random stream).
 func writeCorpus(tb testing.TB, dir string, n int) {
 	tb.Helper()
 	rng := rand.New(rand.NewPCG(7, 11))
