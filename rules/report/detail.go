@@ -2,6 +2,7 @@ package report
 
 import (
 	"fmt"
+	"github.com/phgate/phgate/solver"
 	"io"
 	"sort"
 	"strings"
@@ -36,7 +37,7 @@ func (d *Detail) Write(w io.Writer, r Recipe) error {
 	}
 	fmt.Fprintf(&b, "%s\n", head("Result"))
 	tw := tabwriter.NewWriter(&b, 0, 0, 2, ' ', 0)
-	fmt.Fprintf(tw, "  pH\t%.2f\t(activity scale, %s activity model)\n", r.PH, r.ActivityModel)
+	fmt.Fprintf(tw, "  pH\t%.2f\t(activity scale, %s activity model)\n", r.PH, r.ActivityTitle())
 	if w := r.PHWindow; w != nil {
 		fmt.Fprintf(tw, "  target window\t%s\t\n", windowText(w))
 	}
@@ -157,4 +158,13 @@ func BatchText(mol, grams, ml float64) string {
 		return "–"
 	}
 	return strings.Join(parts, ", ")
+}
+
+// ActivityTitle names the recipe's activity model as written in prose
+// ("Davies", "ideal").
+func (r Recipe) ActivityTitle() string {
+	if r.ActivityModel == solver.Davies.String() {
+		return solver.Davies.Title()
+	}
+	return r.ActivityModel
 }

@@ -140,7 +140,7 @@ func newSectionView(i int, s Section) (sectionView, error) {
 	}
 	// pH and its window head the section; the facts are the rest.
 	v.Facts = []fact{
-		{"temperature", fmt.Sprintf("%g °C", r.TemperatureC), r.ActivityModel + " activity model"},
+		{"temperature", fmt.Sprintf("%g °C", r.TemperatureC), r.ActivityTitle() + " activity model"},
 		{"basis", basis, "concentrations in " + r.ConcentrationUnit},
 		{"ionic strength", fmt.Sprintf("%.4g mol%s", r.IonicStrength, unit), ""},
 		{"buffer capacity", fmt.Sprintf("%.4g mmol%s per pH", r.BufferCapacity*1000, unit), "acid or base that moves the pH by 1"},
