@@ -71,5 +71,5 @@ type RangeError struct {
 
 // Error implements error.
 func (e *RangeError) Error() string {
-	return fmt.Sprintf("solver: %s %.4g beyond the model's range (limit %g)", e.Quantity, e.Value, e.Limit)
+	return fmt.Sprintf("solver: %s %.6g is at or beyond the model's range (limit %g)", e.Quantity, e.Value, e.Limit)
 }

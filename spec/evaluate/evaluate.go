@@ -542,7 +542,34 @@ func (b *builder) solverProblem(err error) diag.Problem {
 			p = ln.Ingredient.Pos
 		}
 	}
+	var re *solver.RangeError
+	if errors.As(err, &re) {
+		// The mixture as a whole is beyond the model: point at the line
+		// that contributes most to the ionic strength.
+		if ln := b.strongestLine(); ln != nil {
+			p = ln.Ingredient.Pos
+		}
+	}
 	return diag.Problem{Path: b.r.Path, Line: p.Line, Column: p.Column, Message: "cannot solve the equilibrium: " + err.Error()}
+}
+
+// strongestLine is the ingredient line whose strong ions add most to the
+// ionic strength (½ Σ c z²), or nil.
+func (b *builder) strongestLine() *Line {
+	var best *Line
+	bestI := 0.0
+	for i := range b.res.Lines {
+		l := &b.res.Lines[i]
+		ionic := 0.0
+		for _, s := range l.Component.StrongPerUnit {
+			z := float64(b.res.Mixture.Strong[s.Index].Charge)
+			ionic += s.Count * l.Conc * z * z / 2
+		}
+		if ionic > bestI {
+			best, bestI = l, ionic
+		}
+	}
+	return best
 }
 
 func (b *builder) lineReleasing(name string) *Line {

@@ -175,7 +175,7 @@ func (d *discovery) target(p string) {
 		return
 	}
 	proj := d.projectFor(p)
-	for _, f := range d.walk(p, proj) {
+	for _, f := range d.walk(p, proj, true) {
 		f.Target = true
 	}
 }
@@ -226,14 +226,18 @@ func (d *discovery) projectFor(dir string) *Project {
 	}
 	// Index every recipe of the project so stocks resolve even when the
 	// user names a single file.
-	d.walk(root, p)
+	// Without a phgate.yaml there is no project boundary: only the
+	// folder's own files are indexed (a folder named on the command line
+	// is still walked in full), so checking one file never reads a whole
+	// home directory.
+	d.walk(root, p, cfgPath != "")
 	return p
 }
 
 // walk loads every YAML file under dir that the project's include and
 // exclude globs let through. Files are parsed in parallel and registered
 // in path order, so duplicate-id problems are deterministic.
-func (d *discovery) walk(dir string, p *Project) []*File {
+func (d *discovery) walk(dir string, p *Project, recursive bool) []*File {
 	skip := map[string]bool{}
 	if p.Config.Path != "" {
 		skip[mustAbs(p.Config.Path)] = true
@@ -255,7 +259,7 @@ func (d *discovery) walk(dir string, p *Project) []*File {
 		}
 		rel := relSlash(p.Config.Dir, path)
 		if e.IsDir() {
-			if path != dir && (strings.HasPrefix(e.Name(), ".") || p.excluded(rel)) {
+			if path != dir && (!recursive || strings.HasPrefix(e.Name(), ".") || p.excluded(rel)) {
 				return filepath.SkipDir
 			}
 			return nil
