@@ -169,42 +169,10 @@ func (c *Catalog) Merge(other *Catalog) (*Catalog, error) {
 			out.positions[k] = v
 		}
 	}
-	for k, v := range c.Sources {
-		out.Sources[k] = v
-	}
-	for k, v := range other.Sources {
-		if _, ok := out.Sources[k]; ok {
-			dup = append(dup, "source "+k)
-		}
-		out.Sources[k] = v
-	}
-	for k, v := range c.Ions {
-		out.Ions[k] = v
-	}
-	for k, v := range other.Ions {
-		if _, ok := out.Ions[k]; ok {
-			dup = append(dup, "ion "+k)
-		}
-		out.Ions[k] = v
-	}
-	for k, v := range c.Systems {
-		out.Systems[k] = v
-	}
-	for k, v := range other.Systems {
-		if _, ok := out.Systems[k]; ok {
-			dup = append(dup, "system "+k)
-		}
-		out.Systems[k] = v
-	}
-	for k, v := range c.Ingredients {
-		out.Ingredients[k] = v
-	}
-	for k, v := range other.Ingredients {
-		if _, ok := out.Ingredients[k]; ok {
-			dup = append(dup, "ingredient "+k)
-		}
-		out.Ingredients[k] = v
-	}
+	dup = mergeInto(out.Sources, c.Sources, other.Sources, "source", dup)
+	dup = mergeInto(out.Ions, c.Ions, other.Ions, "ion", dup)
+	dup = mergeInto(out.Systems, c.Systems, other.Systems, "system", dup)
+	dup = mergeInto(out.Ingredients, c.Ingredients, other.Ingredients, "ingredient", dup)
 	out.Salts = append(append(out.Salts, c.Salts...), other.Salts...)
 	seen := map[string]bool{}
 	for _, s := range out.Salts {
@@ -266,4 +234,19 @@ func FromNodeWithBase(n *yaml.Node, path string, base *Catalog) (*Catalog, diag.
 	b := newBuilder(base)
 	b.addDoc(n, path)
 	return b.finish()
+}
+
+// mergeInto copies base and then extra into out, appending "kind id" to
+// dup for every id extra defines again.
+func mergeInto[T any](out, base, extra map[string]T, kind string, dup []string) []string {
+	for k, v := range base {
+		out[k] = v
+	}
+	for k, v := range extra {
+		if _, ok := out[k]; ok {
+			dup = append(dup, kind+" "+k)
+		}
+		out[k] = v
+	}
+	return dup
 }

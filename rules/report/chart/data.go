@@ -174,20 +174,7 @@ func windowText(lo, hi float64) string {
 // phRange returns a pH axis range covering values and the window, on whole
 // pH units within 0–14.
 func phRange(r *spec.Recipe, values ...[]float64) (float64, float64) {
-	lo, hi := math.Inf(1), math.Inf(-1)
-	for _, vs := range values {
-		for _, v := range vs {
-			lo, hi = math.Min(lo, v), math.Max(hi, v)
-		}
-	}
-	if w := r.PH; w != nil {
-		if w.Min != nil {
-			lo, hi = math.Min(lo, w.Min.Value), math.Max(hi, w.Min.Value)
-		}
-		if w.Max != nil {
-			lo, hi = math.Min(lo, w.Max.Value), math.Max(hi, w.Max.Value)
-		}
-	}
+	lo, hi := phSpan(r, values...)
 	lo, hi = math.Max(math.Floor(lo), 0), math.Min(math.Ceil(hi), 14)
 	if hi-lo < 1 {
 		lo, hi = math.Max(lo-0.5, 0), math.Min(hi+0.5, 14)
@@ -455,21 +442,29 @@ func buildTemperature(res *evaluate.Result, opt Options) (*Chart, error) {
 // tempPHRange covers the curve and the window on tenths of a pH unit, at
 // least half a unit wide so a flat curve does not look steep.
 func tempPHRange(r *spec.Recipe, ph []float64) (float64, float64) {
-	lo, hi := math.Inf(1), math.Inf(-1)
-	for _, v := range ph {
-		lo, hi = math.Min(lo, v), math.Max(hi, v)
-	}
-	if w := r.PH; w != nil {
-		if w.Min != nil {
-			lo, hi = math.Min(lo, w.Min.Value), math.Max(hi, w.Min.Value)
-		}
-		if w.Max != nil {
-			lo, hi = math.Min(lo, w.Max.Value), math.Max(hi, w.Max.Value)
-		}
-	}
+	lo, hi := phSpan(r, ph)
 	lo, hi = math.Floor(lo*10-1)/10, math.Ceil(hi*10+1)/10
 	if d := 0.5 - (hi - lo); d > 0 {
 		lo, hi = lo-d/2, hi+d/2
+	}
+	return lo, hi
+}
+
+// phSpan is the smallest interval holding every value and both ends of
+// the recipe's pH window.
+func phSpan(r *spec.Recipe, values ...[]float64) (float64, float64) {
+	lo, hi := math.Inf(1), math.Inf(-1)
+	for _, vs := range values {
+		for _, v := range vs {
+			lo, hi = math.Min(lo, v), math.Max(hi, v)
+		}
+	}
+	if w := r.PH; w != nil {
+		for _, end := range []*spec.Num{w.Min, w.Max} {
+			if end != nil {
+				lo, hi = math.Min(lo, end.Value), math.Max(hi, end.Value)
+			}
+		}
 	}
 	return lo, hi
 }
