@@ -5,7 +5,7 @@ go 1.26.8
 require (
 	github.com/fatih/color v1.19.0
 	github.com/santhosh-tekuri/jsonschema/v5 v5.3.1
-	gonum.org/v1/gonum v0.17.0
+	golang.org/x/image v0.30.0
 	gonum.org/v1/plot v0.17.0
 	gopkg.in/yaml.v3 v3.0.1
 )
@@ -19,7 +19,7 @@ require (
 	github.com/golang/freetype v0.0.0-20170609003504-e2365dfdc4a0 // indirect
 	github.com/mattn/go-colorable v0.1.14 // indirect
 	github.com/mattn/go-isatty v0.0.20 // indirect
-	golang.org/x/image v0.30.0 // indirect
 	golang.org/x/sys v0.42.0 // indirect
 	golang.org/x/text v0.28.0 // indirect
+	gonum.org/v1/gonum v0.17.0 // indirect
 )
