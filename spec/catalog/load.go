@@ -239,7 +239,11 @@ func (b *builder) value(d *document, n, def *yaml.Node, what string) (Value, boo
 	if n.Kind == yaml.MappingNode {
 		f, _ := number(field(n, "value"))
 		s, ok := b.source(d, field(n, "source"))
-		return Value{V: f, Source: s}, ok
+		v := Value{V: f, Source: s}
+		if nn := field(n, "notes"); nn != nil {
+			v.Notes = nn.Value
+		}
+		return v, ok
 	}
 	f, _ := number(n)
 	if def == nil {

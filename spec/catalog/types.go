@@ -19,6 +19,8 @@ type Value struct {
 	V float64 `json:"value"`
 	// Source says where V comes from.
 	Source Source `json:"source"`
+	// Notes qualifies the number (e.g. "50 % w/w solution" for a density).
+	Notes string `json:"notes,omitempty"`
 }
 
 // Step is one ionization step of an acid–base system.

@@ -271,16 +271,14 @@ func (b *builder) fromStockVolume(in *spec.Ingredient, molarMass float64, densit
 		}
 		return a.Value * s.Value / molarMass
 	case units.MassFraction:
-		rho := 0.0
-		switch {
-		case in.StockDensity != nil:
-			rho = in.StockDensity.Value / 1000
-		case density != nil:
-			rho = density.V
-		default:
-			b.add(s.Pos, fmt.Sprintf("a %s stock of %s needs its density: add stock-density (e.g. 1.15 g/mL)", s.Raw, in.Label()))
+		// The density of a solution depends on its strength; a catalog
+		// density belongs to one commercial strength only, so it is never
+		// applied silently to another.
+		if in.StockDensity == nil {
+			b.add(s.Pos, stockDensityHint(in, s, density))
 			return 0
 		}
+		rho := in.StockDensity.Value / 1000
 		if molarMass <= 0 {
 			b.add(s.Pos, fmt.Sprintf("%s has no molar mass; give the stock in mol/L", in.Label()))
 			return 0
@@ -494,9 +492,15 @@ func (b *builder) solve() diag.Problems {
 			case units.MassConcentration:
 				l.Millilitres = l.Grams / s.Value * 1000
 			case units.MassFraction:
-				if rho := b.stockDensity(l); rho > 0 {
-					l.Millilitres = l.Grams / (s.Value * rho)
+				rho := b.stockDensity(l)
+				if rho <= 0 {
+					var d *catalog.Value
+					if l.Entry != nil {
+						d = l.Entry.Density
+					}
+					return diag.Problems{{Path: r.Path, Line: s.Pos.Line, Column: s.Pos.Column, Message: stockDensityHint(l.Ingredient, s, d)}}
 				}
+				l.Millilitres = l.Grams / (s.Value * rho)
 			}
 		}
 		b.res.Adjustment = &Adjustment{Line: ti, TargetPH: target, Conc: l.Conc, Moles: l.Moles, Grams: l.Grams, Millilitres: l.Millilitres}
@@ -516,10 +520,24 @@ func (b *builder) stockDensity(l *Line) float64 {
 	if l.Ingredient.StockDensity != nil {
 		return l.Ingredient.StockDensity.Value / 1000
 	}
-	if l.Entry != nil && l.Entry.Density != nil {
-		return l.Entry.Density.V
-	}
 	return 0
+}
+
+// stockDensityHint asks for the density of a % w/w stock, quoting the
+// catalog's density and the strength it belongs to when there is one.
+func stockDensityHint(in *spec.Ingredient, s *spec.Amount, density *catalog.Value) string {
+	msg := fmt.Sprintf("a %s stock of %s needs its density: add stock-density (e.g. stock-density: 1.11 g/mL)", s.Raw, in.Label())
+	if density != nil {
+		msg += fmt.Sprintf("; the catalog's %g g/mL is for %s", density.V, densityNote(density))
+	}
+	return msg
+}
+
+func densityNote(v *catalog.Value) string {
+	if v.Notes != "" {
+		return v.Notes
+	}
+	return "one commercial strength"
 }
 
 // solverProblem maps a solver error back to the recipe line that caused it.

@@ -2,6 +2,7 @@ package evaluate
 
 import (
 	"math"
+	"strings"
 	"testing"
 
 	"github.com/phgate/phgate/spec"
@@ -115,5 +116,20 @@ func TestPeptide(t *testing.T) {
 				t.Errorf("charge at pI = %g", pep.Charge(p.PI))
 			}
 		})
+	}
+}
+
+// TestPercentStockNeedsItsDensity: the density of a % w/w stock depends on
+// its strength, so phgate never borrows the catalog's density (which is
+// for one commercial strength) for another.
+func TestPercentStockNeedsItsDensity(t *testing.T) {
+	for line, src := range map[int]string{
+		6: "recipe: a\nbasis: 1 L\ningredients:\n  - use: sodium-hydroxide\n    amount: 10 mL\n    stock: 10 % w/w\n",
+		8: "recipe: a\nbasis: 1 L\ningredients:\n  - use: acetic-acid\n    amount: 10 mM\n  - use: sodium-hydroxide\n    adjust-to-ph: 4.7\n    stock: 10 % w/w\n",
+	} {
+		_, ps := Evaluate(load(t, src), catalog.Default(), noStocks)
+		if len(ps) != 1 || ps[0].Line != line || ps[0].Column != 12 || !strings.Contains(ps[0].Message, "needs its density") {
+			t.Errorf("problems = %v", ps)
+		}
 	}
 }

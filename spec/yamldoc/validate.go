@@ -71,7 +71,7 @@ func (d *Doc) Validate(schema *jsonschema.Schema, allowedKeys func(ptr string) [
 func collectLeaves(e *jsonschema.ValidationError, out *[]*jsonschema.ValidationError) {
 	// An anyOf failure is one problem ("none of the allowed forms"), not
 	// one per branch.
-	if len(e.Causes) == 0 || strings.HasPrefix(e.Message, "anyOf failed") {
+	if len(e.Causes) == 0 || strings.HasPrefix(e.Message, "anyOf failed") || wrongTypeForEveryForm(e) {
 		*out = append(*out, e)
 		return
 	}
@@ -171,10 +171,28 @@ func patternHint(key string) string {
 }
 
 func oneOfHint(key string) string {
-	if strings.HasPrefix(key, "ingredients[") || key == "ingredient" {
+	switch {
+	case strings.HasPrefix(key, "ingredients[") || key == "ingredient":
 		return "an ingredient has exactly one of use, from or sequence"
+	case key == "temperature":
+		return "write it as 25 C, or as {nominal: 25 C, range: 4..25 C}"
 	}
 	return "see the schema"
+}
+
+// wrongTypeForEveryForm reports a oneOf whose every branch failed only on
+// the value's type (temperature: 25 is neither a string nor a mapping):
+// one problem says so, instead of one per branch.
+func wrongTypeForEveryForm(e *jsonschema.ValidationError) bool {
+	if !strings.HasPrefix(e.Message, "oneOf failed") {
+		return false
+	}
+	for _, c := range e.Causes {
+		if len(c.Causes) > 0 || c.InstanceLocation != e.InstanceLocation || !strings.HasPrefix(c.Message, "expected ") {
+			return false
+		}
+	}
+	return true
 }
 
 // keyName renders a JSON pointer as a readable key path:
