@@ -40,7 +40,7 @@ func (a *App) catalog(args []string) int {
 	} else {
 		for _, id := range cat.IDs() {
 			e, _ := cat.Ingredient(id)
-			if query == "" || strings.Contains(id, query) || strings.Contains(strings.ToLower(e.Name), query) || strings.Contains(strings.ToLower(e.Formula), query) {
+			if query == "" || strings.Contains(id, query) || strings.Contains(strings.ToLower(e.Name), query) || strings.Contains(strings.ToLower(e.Formula), query) || releases(e, query) {
 				hits = append(hits, e)
 			}
 		}
@@ -176,4 +176,15 @@ func projectCatalog(dir string) (*catalog.Catalog, diag.Problems) {
 		cat = merged
 	}
 	return cat, nil
+}
+
+// releases reports whether an ingredient releases an acid–base system
+// whose id contains query ("citrate" finds citric acid too).
+func releases(e *catalog.Ingredient, query string) bool {
+	for _, s := range e.Systems {
+		if strings.Contains(s.System, query) {
+			return true
+		}
+	}
+	return false
 }

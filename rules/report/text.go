@@ -141,8 +141,12 @@ func Headline(r Recipe) string {
 		}
 		window = fmt.Sprintf(" (target %s–%s)", lo, hi)
 	}
-	return fmt.Sprintf("pH %.2f%s at %g °C · ionic strength %.3g %s · buffer capacity %.3g m%s per pH · %.0f mOsm/L",
-		r.PH, window, r.TemperatureC, r.IonicStrength, r.ConcentrationUnit, r.BufferCapacity*1000, r.ConcentrationUnit, r.Osmolarity)
+	osm := "mOsm/L"
+	if r.ConcentrationUnit == "mol/kg" {
+		osm = "mOsm/kg"
+	}
+	return fmt.Sprintf("pH %.2f%s at %g °C · ionic strength %.3g %s · buffer capacity %.3g m%s per pH · %.0f %s",
+		r.PH, window, r.TemperatureC, r.IonicStrength, r.ConcentrationUnit, r.BufferCapacity*1000, r.ConcentrationUnit, r.Osmolarity, osm)
 }
 
 // AdjustAmount renders a q.s. amount in the units a formulator weighs.
@@ -151,7 +155,7 @@ func AdjustAmount(a Adjust, concUnit string) string {
 	if a.Mol != 0 {
 		parts = append(parts, fmt.Sprintf("%.4g mmol", a.Mol*1000))
 		if a.Grams != 0 {
-			parts = append(parts, fmt.Sprintf("%.4g g", a.Grams))
+			parts = append(parts, fmt.Sprintf("%.4g g pure", a.Grams))
 		}
 		if a.Millilitres != 0 {
 			parts = append(parts, fmt.Sprintf("%.4g mL of stock", a.Millilitres))

@@ -540,7 +540,7 @@ func (p *Project) evaluateNow(f *File, r *spec.Recipe, chain []string) (*evaluat
 		sf, ok := p.byID[stockID]
 		if !ok {
 			msg := fmt.Sprintf("no recipe with id %q in this project", stockID)
-			if s := suggest.Nearest(stockID, p.IDs()); s != "" {
+			if s := suggest.Nearest(stockID, without(p.IDs(), r.ID.Value)); s != "" {
 				msg += fmt.Sprintf("; did you mean %q?", s)
 			}
 			return nil, &diag.Problem{Path: f.Path, Line: at.Line, Column: at.Column, Message: msg}
@@ -592,4 +592,15 @@ func ReadCatalog(path string, base *catalog.Catalog) (*catalog.Catalog, diag.Pro
 		return nil, diag.Problems{{Path: path, Message: err.Error()}}
 	}
 	return catalog.ParseWithBase(data, path, base)
+}
+
+// without returns ids less one of them.
+func without(ids []string, drop string) []string {
+	out := ids[:0:0]
+	for _, id := range ids {
+		if id != drop {
+			out = append(out, id)
+		}
+	}
+	return out
 }
