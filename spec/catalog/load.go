@@ -1,18 +1,16 @@
 package catalog
 
 import (
-	"bytes"
 	"errors"
 	"fmt"
-	"io"
 	"math"
 	"regexp"
 	"strconv"
 	"strings"
-	"unicode/utf8"
 
 	"github.com/phgate/phgate/spec/diag"
 	"github.com/phgate/phgate/spec/formula"
+	"github.com/phgate/phgate/spec/yamldoc"
 	"gopkg.in/yaml.v3"
 )
 
@@ -37,33 +35,14 @@ const (
 	StatusInvented = "invented"
 )
 
-var yamlLineRe = regexp.MustCompile(`line (\d+)`)
-
-// decodeYAML parses one YAML document into a node.
+// decodeYAML parses one YAML document into a node, with the shared
+// decoder's checks (UTF-8, binary, one document, nesting and alias limits).
 func decodeYAML(data []byte, path string) (*yaml.Node, diag.Problems) {
-	data = bytes.TrimPrefix(data, []byte("\xef\xbb\xbf"))
-	if !utf8.Valid(data) {
-		return nil, diag.Problems{{Path: path, Message: "file is not valid UTF-8 text"}}
+	d, ps := yamldoc.Parse(data, path)
+	if ps != nil {
+		return nil, ps
 	}
-	dec := yaml.NewDecoder(bytes.NewReader(data))
-	var root yaml.Node
-	if err := dec.Decode(&root); err != nil {
-		if errors.Is(err, io.EOF) {
-			return nil, diag.Problems{{Path: path, Message: "file is empty"}}
-		}
-		p := diag.Problem{Path: path, Message: strings.TrimPrefix(err.Error(), "yaml: ")}
-		if m := yamlLineRe.FindStringSubmatch(err.Error()); m != nil {
-			p.Line, _ = strconv.Atoi(m[1])
-			p.Message = strings.TrimSpace(yamlLineRe.ReplaceAllString(p.Message, ""))
-			p.Message = strings.TrimPrefix(p.Message, ": ")
-		}
-		return nil, diag.Problems{p}
-	}
-	var extra yaml.Node
-	if err := dec.Decode(&extra); err == nil {
-		return nil, diag.Problems{{Path: path, Line: extra.Line, Column: extra.Column, Message: "a catalog file holds one YAML document; found a second one"}}
-	}
-	return &root, nil
+	return d.Root, nil
 }
 
 // builder turns documents into a catalog in two phases: decode every
