@@ -83,9 +83,9 @@ func (b *builder) finish() (*Catalog, diag.Problems) {
 
 // addDoc validates one document and decodes its sections.
 func (b *builder) addDoc(root *yaml.Node, path string) {
-	d, err := newDocument(root, path)
-	if err != nil {
-		b.problem(Pos{Path: path}, err.Error())
+	d, ps := newDocument(root, path)
+	if ps != nil {
+		b.probs = append(b.probs, ps...)
 		return
 	}
 	if d.root == nil {

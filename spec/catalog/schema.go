@@ -55,7 +55,7 @@ func (d *document) validate() (diag.Problems, []string) {
 	if err != nil {
 		return diag.Problems{{Path: d.path, Message: "internal error: catalog schema: " + err.Error()}}, []string{""}
 	}
-	err = s.Validate(d.value)
+	err = s.Validate(d.Value())
 	if err == nil {
 		return nil, nil
 	}
@@ -167,9 +167,9 @@ func (d *document) describe(e *jsonschema.ValidationError, add func(ptr string, 
 // nearest indexed ancestor.
 func (d *document) problemAt(ptr string, key bool, msg string) diag.Problem {
 	for p := ptr; ; {
-		n := d.values[p]
+		n := d.Node(p)
 		if key || n == nil {
-			if k := d.keys[p]; k != nil {
+			if k := d.Key(p); k != nil {
 				n = k
 			}
 		}

@@ -1,129 +1,36 @@
 package catalog
 
 import (
-	"fmt"
 	"math"
-	"strconv"
 	"strings"
 
+	"github.com/phgate/phgate/spec/diag"
+	"github.com/phgate/phgate/spec/yamldoc"
 	"gopkg.in/yaml.v3"
 )
 
-// Limits against hostile documents.
-const (
-	// maxDepth bounds nesting of mappings and sequences.
-	maxDepth = 64
-	// maxNodes bounds nodes visited, alias expansions included, so an
-	// alias bomb is refused quickly.
-	maxNodes = 200000
-)
-
-// document is one decoded YAML file with a JSON-pointer index of its
-// nodes, used to map schema errors back to positions.
+// document is one decoded catalog (a file, or a recipe's inline catalog)
+// indexed by JSON pointer through the shared YAML decoder, so schema
+// errors map back to positions.
 type document struct {
-	path   string
-	root   *yaml.Node
-	values map[string]*yaml.Node // pointer -> value node
-	keys   map[string]*yaml.Node // pointer -> key node of a mapping entry
-	value  any                   // JSON-like value for schema validation
+	*yamldoc.Doc
+	path string
+	root *yaml.Node
 }
 
 func escapePtr(s string) string {
 	return strings.ReplaceAll(strings.ReplaceAll(s, "~", "~0"), "/", "~1")
 }
 
-func deref(n *yaml.Node) *yaml.Node {
-	for i := 0; n != nil && n.Kind == yaml.AliasNode && i < maxDepth; i++ {
-		n = n.Alias
-	}
-	return n
-}
+func deref(n *yaml.Node) *yaml.Node { return yamldoc.Deref(n) }
 
 // newDocument indexes root (a document or mapping node).
-func newDocument(root *yaml.Node, path string) (*document, error) {
-	if root != nil && root.Kind == yaml.DocumentNode {
-		if len(root.Content) == 0 {
-			root = nil
-		} else {
-			root = root.Content[0]
-		}
+func newDocument(root *yaml.Node, path string) (*document, diag.Problems) {
+	d, ps := yamldoc.FromNode(root, path)
+	if ps != nil {
+		return nil, ps
 	}
-	d := &document{path: path, root: root, values: map[string]*yaml.Node{}, keys: map[string]*yaml.Node{}}
-	if root == nil {
-		return d, nil
-	}
-	budget := maxNodes
-	v, err := d.walk(root, "", 0, &budget)
-	if err != nil {
-		return nil, err
-	}
-	d.value = v
-	return d, nil
-}
-
-func (d *document) walk(n *yaml.Node, ptr string, depth int, budget *int) (any, error) {
-	*budget--
-	if *budget < 0 {
-		return nil, fmt.Errorf("document too large or too many alias expansions (more than %d nodes)", maxNodes)
-	}
-	if depth > maxDepth {
-		return nil, fmt.Errorf("nesting deeper than %d levels", maxDepth)
-	}
-	n = deref(n)
-	if n == nil {
-		return nil, nil
-	}
-	d.values[ptr] = n
-	switch n.Kind {
-	case yaml.MappingNode:
-		m := map[string]any{}
-		for i := 0; i+1 < len(n.Content); i += 2 {
-			k, v := deref(n.Content[i]), n.Content[i+1]
-			if k == nil {
-				continue
-			}
-			p := ptr + "/" + escapePtr(k.Value)
-			d.keys[p] = k
-			val, err := d.walk(v, p, depth+1, budget)
-			if err != nil {
-				return nil, err
-			}
-			m[k.Value] = val
-		}
-		return m, nil
-	case yaml.SequenceNode:
-		s := make([]any, 0, len(n.Content))
-		for i, c := range n.Content {
-			val, err := d.walk(c, ptr+"/"+strconv.Itoa(i), depth+1, budget)
-			if err != nil {
-				return nil, err
-			}
-			s = append(s, val)
-		}
-		return s, nil
-	case yaml.ScalarNode:
-		return scalarValue(n), nil
-	}
-	return nil, nil
-}
-
-// scalarValue converts a scalar to the JSON-like value the schema sees.
-func scalarValue(n *yaml.Node) any {
-	switch n.ShortTag() {
-	case "!!int", "!!float":
-		if f, ok := number(n); ok {
-			return f
-		}
-		return n.Value
-	case "!!bool":
-		var b bool
-		if n.Decode(&b) == nil {
-			return b
-		}
-	case "!!null":
-		return nil
-	}
-	return n.Value
+	return &document{Doc: d, path: path, root: d.Root}, nil
 }
 
 // number decodes a numeric scalar; NaN and infinities are refused.

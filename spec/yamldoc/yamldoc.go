@@ -61,13 +61,23 @@ func Parse(data []byte, path string) (*Doc, diag.Problems) {
 	}
 	var extra yaml.Node
 	if err := dec.Decode(&extra); err == nil {
-		return nil, diag.Problems{{Path: path, Line: extra.Line, Column: extra.Column, Message: "more than one YAML document in the file; keep one recipe per file"}}
+		return nil, diag.Problems{{Path: path, Line: extra.Line, Column: extra.Column, Message: "more than one YAML document in the file; keep one document (one recipe, one catalog) per file"}}
 	}
-	top := &root
-	if top.Kind == yaml.DocumentNode && len(top.Content) == 1 {
+	return FromNode(&root, path)
+}
+
+// FromNode indexes an already decoded node (a document, or a part of one
+// such as a recipe's inline catalog) with the same nesting, alias and key
+// checks as Parse; pointers are relative to the node.
+func FromNode(n *yaml.Node, path string) (*Doc, diag.Problems) {
+	top := Deref(n)
+	if top != nil && top.Kind == yaml.DocumentNode && len(top.Content) == 1 {
 		top = top.Content[0]
 	}
 	d := &Doc{Path: path, Root: top, values: map[string]*yaml.Node{}, keys: map[string]*yaml.Node{}}
+	if top == nil {
+		return d, nil
+	}
 	budget := MaxNodes
 	if p := d.index(top, "", 0, &budget); p != nil {
 		return nil, diag.Problems{*p}
