@@ -51,7 +51,14 @@ func (d *Detail) Write(w io.Writer, r Recipe) error {
 
 	fmt.Fprintf(&b, "\n%s\n", head("Ingredients"))
 	tw = tabwriter.NewWriter(&b, 0, 0, 2, ' ', tabwriter.AlignRight)
-	fmt.Fprintf(tw, "  ingredient\tas written\tin product\tper batch\t\n")
+	// Names read left-aligned, numbers right-aligned: pad the names to one
+	// width so the right-aligning writer leaves them as they are.
+	nameWidth := len([]rune("ingredient"))
+	for _, l := range r.Ingredients {
+		nameWidth = max(nameWidth, len([]rune(l.Ingredient)))
+	}
+	pad := func(s string) string { return s + strings.Repeat(" ", nameWidth-len([]rune(s))) }
+	fmt.Fprintf(tw, "  %s\tas written\tin product\tper batch\t\n", pad("ingredient"))
 	for _, l := range r.Ingredients {
 		amount := l.Amount
 		if l.QS {
@@ -65,7 +72,7 @@ func (d *Detail) Write(w io.Writer, r Recipe) error {
 			inProduct = "to basis"
 		}
 		batch := BatchText(l.Mol, l.Grams, l.Millilitres)
-		fmt.Fprintf(tw, "  %s\t%s\t%s\t%s\t\n", l.Ingredient, amount, inProduct, batch)
+		fmt.Fprintf(tw, "  %s\t%s\t%s\t%s\t\n", pad(l.Ingredient), amount, inProduct, batch)
 	}
 	tw.Flush()
 	for _, a := range r.Adjustments {
