@@ -35,7 +35,7 @@ func TestRegistry(t *testing.T) {
 				}
 			}
 			if r.Defaults != nil {
-				if !strings.Contains(r.Doc, "common practice") && !strings.Contains(r.Doc, "from memory") && !strings.Contains(r.Doc, "(") {
+				if !sourceRe.MatchString(r.Doc) {
 					t.Errorf("doc names no source for its default thresholds")
 				}
 				ty := reflect.TypeOf(r.Defaults)
@@ -105,3 +105,7 @@ func TestExamplesHaveNoErrors(t *testing.T) {
 		}
 	}
 }
+
+// sourceRe finds where a rule's doc names the source of its thresholds:
+// "common practice", "from memory", or a citation with a year.
+var sourceRe = regexp.MustCompile(`common\s+practice|from\s+memory|\b(19|20)\d\d\b`)

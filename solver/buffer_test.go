@@ -87,7 +87,8 @@ func TestBufferCapacityFiniteDifference(t *testing.T) {
 		// log K: CaCit− 4.85 (Singh et al. 1991), MgCit− ≈ 4.8 at I → 0
 		// (from memory), CaHPO4 2.7 and CaH2PO4+ 0.9–1.4 (reference file
 		// recommendations; 1.1 taken inside the range), MgHPO4 2.85
-		// (PMC2630969 Table 2), all as listed in the reference file §4.
+		// (open-access article PMC2630969, Table 2; authors not recorded),
+		// all as compiled in our reference notes.
 		{"two metals two ligands", Mixture{Systems: []System{citrate(0.01), phosphate(0.02)},
 			Strong: []StrongIon{ion("Na+", 0.05, 1), ion("Ca2+", 0.004, 2), ion("Mg2+", 0.003, 2), ion("Cl-", 0.014, -1)},
 			Complexes: []Complex{

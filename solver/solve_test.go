@@ -107,7 +107,6 @@ func TestPureWater(t *testing.T) {
 					t.Fatal(err)
 				}
 				within(t, "pH", eq.PH, PKw(tc)/2, 1e-6)
-				within(t, "PKw", eq.PKw, PKw(tc), 1e-12)
 			})
 		}
 	}
@@ -151,7 +150,9 @@ func TestResultFields(t *testing.T) {
 }
 
 func TestSaturationIndex(t *testing.T) {
-	// Brushite CaHPO4·2H2O, pKsp 6.59 at 25 °C (reference file §4, C).
+	// Brushite CaHPO4·2H2O, pKsp 6.59 at 25 °C: a compiled literature value
+	// whose primary paper our reference notes do not name (treat as from
+	// memory); 6.63 at 37 °C in the same compilation.
 	m := Mixture{
 		Systems: []System{phosphate(0.02)},
 		Strong:  []StrongIon{ion("Ca2+", 0.01, 2), ion("Cl-", 0.02, -1), ion("Na+", 0.03, 1)},

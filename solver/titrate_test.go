@@ -173,7 +173,8 @@ func TestCurves(t *testing.T) {
 		}
 	})
 	t.Run("temperature curve of Tris falls about 0.028 per K", func(t *testing.T) {
-		// Lange's Handbook: Tris dpH/dT magnitude 0.028 K⁻¹ (reference file, C).
+		// Lange's Handbook of Chemistry, Tris buffer entry (edition not
+		// recorded): |dpH/dT| 0.028 K⁻¹.
 		mt := Mixture{Systems: []System{tris(0.1)}, Strong: []StrongIon{ion("Cl-", 0.05, -1)}}
 		phs, err := TemperatureCurve(mt, []float64{20, 30})
 		if err != nil {

@@ -651,6 +651,9 @@ func TestDiffBinary(t *testing.T) {
 		code      int
 		want      []string
 	}{
+		// The pH figures below are regression values from phgate's own
+		// output for this fixture repository, not chemistry checks (those
+		// live in solver and testdata/standards).
 		{"from a sub-folder", "recipes", []string{"diff", "--base", "HEAD~1", "--head", "HEAD", "--format", "markdown", "working.yaml"}, ExitOK,
 			[]string{"| `working-buffer` | modified | 7.01 | 7.07 | +0.0584 |", "moved by a change to stock recipe `phos-stock`"}},
 		{"whole repository with a gate", ".", []string{"diff", "--base", "HEAD~1", "--max-ph-shift", "0.1"}, ExitFindings,

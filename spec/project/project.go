@@ -249,6 +249,9 @@ func (d *discovery) walk(dir string, p *Project, recursive bool) []*File {
 	_ = filepath.WalkDir(dir, func(path string, e fs.DirEntry, err error) error {
 		if err != nil {
 			if path == dir {
+				// The folder itself cannot be read: say so rather than
+				// report it as holding no recipes.
+				d.files[mustAbs(path)] = &File{Path: path, project: p, Target: true, Problems: diag.Problems{{Path: path, Message: "cannot read: " + unwrapPathErr(err).Error()}}}
 				return nil
 			}
 			if _, seen := d.files[mustAbs(path)]; !seen {
