@@ -116,15 +116,17 @@ func Load(label, root string, paths []string, rulesFor RulesFor) *Side {
 
 func (s *Side) load(f *project.File, pol Rules) *Recipe {
 	r := &Recipe{Path: s.rel(f.Path), Sum: fileSum(f.Path)}
+	// The governing config is recorded even for a file that cannot be
+	// loaded, so a config that did not change is never named as a cause.
+	if p := f.Project(); p != nil && p.Config != nil && p.Config.Path != "" {
+		r.Config = s.rel(p.Config.Path)
+		r.ConfigSum = fileSum(p.Config.Path)
+	}
 	if f.Recipe == nil {
 		r.Problems = s.relProblems(f.Problems)
 		return r
 	}
 	r.ID = f.Recipe.ID.Value
-	if p := f.Project(); p != nil && p.Config != nil && p.Config.Path != "" {
-		r.Config = s.rel(p.Config.Path)
-		r.ConfigSum = fileSum(p.Config.Path)
-	}
 	res, ps := f.Evaluate()
 	if len(ps) > 0 {
 		r.Problems = s.relProblems(ps)
@@ -132,8 +134,9 @@ func (s *Side) load(f *project.File, pol Rules) *Recipe {
 	}
 	if pol == nil {
 		// A file outside every discovered project cannot happen with
-		// project.Discover; fail loudly rather than skip its rules.
-		panic("review: no rule policy for " + f.Path)
+		// project.Discover; report it rather than skip its rules.
+		r.Problems = []diag.Problem{{Path: r.Path, Message: "internal error: no rule policy for this recipe's project"}}
+		return r
 	}
 	findings, ps := pol.Check(res)
 	if len(ps) > 0 {
