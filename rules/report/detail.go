@@ -76,7 +76,7 @@ func (d *Detail) Write(w io.Writer, r Recipe) error {
 	}
 	tw.Flush()
 	for _, a := range r.Adjustments {
-		fmt.Fprintf(&b, "  q.s. %s to pH %g: %s\n", a.Use, a.TargetPH, AdjustAmount(a, r.ConcentrationUnit))
+		fmt.Fprintf(&b, "  q.s. %s to pH %g: %s%s\n", a.Use, a.TargetPH, AdjustAmount(a, r.ConcentrationUnit), assumedBasis(&r))
 	}
 
 	fmt.Fprintf(&b, "\n%s\n", head("Acid–base systems"))

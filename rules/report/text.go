@@ -60,7 +60,7 @@ func (t *Text) WriteRecipe(w io.Writer, r *Recipe) error {
 	fmt.Fprintf(&b, "%s  %s\n", bold(r.Path), dim(r.Recipe))
 	fmt.Fprintf(&b, "    %s\n", Headline(*r))
 	for _, a := range r.Adjustments {
-		fmt.Fprintf(&b, "    q.s. %s to pH %g: %s\n", a.Use, a.TargetPH, AdjustAmount(a, r.ConcentrationUnit))
+		fmt.Fprintf(&b, "    q.s. %s to pH %g: %s%s\n", a.Use, a.TargetPH, AdjustAmount(a, r.ConcentrationUnit), assumedBasis(r))
 	}
 	t.findings(&b, r.Findings)
 	b.WriteString("\n")
@@ -183,4 +183,13 @@ func (s Summary) Tally() []string {
 		parts = append(parts, fmt.Sprintf("%d waived", s.Waived))
 	}
 	return append(parts, plural(s.Problems, "problem"))
+}
+
+// assumedBasis notes when per-batch amounts are per litre only because
+// the recipe gives no basis.
+func assumedBasis(r *Recipe) string {
+	if strings.HasSuffix(r.Basis, "(assumed)") {
+		return " per litre (the recipe gives no basis)"
+	}
+	return ""
 }
