@@ -37,15 +37,6 @@ func evaluateFixture(t *testing.T, path string) *evaluate.Result {
 		t.Fatalf("fixture does not load:\n%v", ps)
 	}
 	cat := catalog.Default()
-	if r.Catalog != nil {
-		inline, ps := catalog.FromNode(r.Catalog, path)
-		if len(ps) > 0 {
-			t.Fatalf("inline catalog:\n%v", ps)
-		}
-		if cat, err = cat.Merge(inline); err != nil {
-			t.Fatal(err)
-		}
-	}
 	noStocks := func(id string, at spec.Pos) (*evaluate.Result, *diag.Problem) {
 		return nil, &diag.Problem{Path: path, Line: at.Line, Column: at.Column, Message: "fixtures have no stocks"}
 	}

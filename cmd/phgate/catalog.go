@@ -3,7 +3,6 @@ package main
 import (
 	"encoding/json"
 	"fmt"
-	"path/filepath"
 	"strings"
 	"text/tabwriter"
 
@@ -154,26 +153,17 @@ func sourceText(s catalog.Source) string {
 // projectCatalog is the built-in catalog plus the catalogs named by the
 // phgate.yaml governing dir.
 func projectCatalog(dir string) (*catalog.Catalog, diag.Problems) {
-	cat := catalog.Default()
 	cfgPath := project.FindConfig(dir)
 	if cfgPath == "" {
-		return cat, nil
+		return catalog.Default(), nil
 	}
 	cfg, ps := project.LoadConfig(cfgPath)
 	if len(ps) > 0 {
 		return nil, ps
 	}
-	for _, c := range cfg.Catalogs {
-		p := filepath.Join(cfg.Dir, filepath.FromSlash(c.Value))
-		extra, ps := project.ReadCatalog(p, cat)
-		if len(ps) > 0 {
-			return nil, ps
-		}
-		merged, err := cat.Merge(extra)
-		if err != nil {
-			return nil, diag.Problems{{Path: p, Message: err.Error()}}
-		}
-		cat = merged
+	cat, ps := project.CatalogFor(cfg)
+	if len(ps) > 0 {
+		return nil, ps
 	}
 	return cat, nil
 }

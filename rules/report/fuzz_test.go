@@ -106,18 +106,6 @@ func checkPipeline(t *testing.T, data []byte) {
 		return
 	}
 	cat := base
-	if r.Catalog != nil {
-		inline, ps := catalog.FromNodeWithBase(r.Catalog, r.Path, base)
-		if len(ps) > 0 {
-			checkProblems(t, data, ps)
-			return
-		}
-		merged, err := base.Merge(inline)
-		if err != nil {
-			return
-		}
-		cat = merged
-	}
 	lookup := func(id string, at spec.Pos) (*evaluate.Result, *diag.Problem) {
 		return nil, &diag.Problem{Path: r.Path, Line: at.Line, Column: at.Column, Message: "no stock recipes while fuzzing"}
 	}

@@ -19,27 +19,15 @@ import (
 // (recipe text → load → inline catalog → Evaluate → rules → report JSON)
 // and require each to give either a finite result or positioned problems.
 
-// evaluateText loads, merges an inline catalog as the project loader
-// does, and evaluates one recipe with no stock recipes available.
+// evaluateText loads and evaluates one recipe (inline catalog included)
+// with no stock recipes available.
 func evaluateText(t *testing.T, src string) (*evaluate.Result, diag.Problems) {
 	t.Helper()
 	r, ps := spec.LoadRecipe([]byte(src), "edge.yaml")
 	if len(ps) > 0 {
 		return nil, ps
 	}
-	cat := catalog.Default()
-	if r.Catalog != nil {
-		inline, ps := catalog.FromNodeWithBase(r.Catalog, r.Path, cat)
-		if len(ps) > 0 {
-			return nil, ps
-		}
-		merged, err := cat.Merge(inline)
-		if err != nil {
-			t.Fatalf("merge inline catalog: %v", err)
-		}
-		cat = merged
-	}
-	return evaluate.Evaluate(r, cat, func(id string, at spec.Pos) (*evaluate.Result, *diag.Problem) {
+	return evaluate.Evaluate(r, catalog.Default(), func(id string, at spec.Pos) (*evaluate.Result, *diag.Problem) {
 		return nil, &diag.Problem{Path: r.Path, Line: at.Line, Column: at.Column, Message: "no stock recipes in this test"}
 	})
 }

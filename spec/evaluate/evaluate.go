@@ -91,9 +91,14 @@ type Result struct {
 // StockLookup returns the solved recipe with the given id, or a problem.
 type StockLookup func(id string, at spec.Pos) (*Result, *diag.Problem)
 
-// Evaluate resolves and solves a recipe against a catalog (the project's
-// catalog merged with the recipe's inline one) and a stock lookup.
+// Evaluate resolves and solves a recipe against a catalog (the project's:
+// built-in plus its catalog files) merged with the recipe's own inline
+// `catalog:`, and a stock lookup.
 func Evaluate(r *spec.Recipe, cat *catalog.Catalog, stocks StockLookup) (*Result, diag.Problems) {
+	cat, ps := withInline(r, cat)
+	if len(ps) > 0 {
+		return nil, ps
+	}
 	b := builder{r: r, cat: cat, res: &Result{Recipe: r, Catalog: cat, Molal: r.Basis.Kind == spec.WaterMassBasis},
 		sysIndex: map[string]int{}, ionIndex: map[string]int{}, neutralIndex: map[string]int{}}
 	b.res.Mixture.TemperatureC = r.Temperature.Nominal
@@ -675,4 +680,21 @@ func (b *builder) ref(r catalog.SpeciesRef) (solver.Ref, bool) {
 		}
 	}
 	return solver.Ref{}, false
+}
+
+// withInline returns cat merged with the recipe's inline catalog, whose
+// entries may refer to cat's.
+func withInline(r *spec.Recipe, cat *catalog.Catalog) (*catalog.Catalog, diag.Problems) {
+	if r.Catalog == nil {
+		return cat, nil
+	}
+	inline, ps := catalog.FromNodeWithBase(r.Catalog, r.Path, cat)
+	if len(ps) > 0 {
+		return nil, ps
+	}
+	merged, err := cat.Merge(inline)
+	if err != nil {
+		return nil, diag.Problems{{Path: r.Path, Line: r.Catalog.Line, Column: r.Catalog.Column, Message: err.Error()}}
+	}
+	return merged, nil
 }

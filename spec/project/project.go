@@ -205,25 +205,9 @@ func (d *discovery) projectFor(dir string) *Project {
 			p.Config = c
 		}
 	}
-	p.Catalog = catalog.Default()
-	for _, c := range p.Config.Catalogs {
-		cp := filepath.Join(p.Config.Dir, filepath.FromSlash(c.Value))
-		if _, err := os.Stat(cp); err != nil {
-			p.Problems = append(p.Problems, diag.Problem{Path: p.Config.Path, Line: c.Pos.Line, Column: c.Pos.Column, Message: fmt.Sprintf("catalog %s: %v", c.Value, unwrapPathErr(err))})
-			continue
-		}
-		extra, ps := ReadCatalog(cp, p.Catalog)
-		if len(ps) > 0 {
-			p.Problems = append(p.Problems, ps...)
-			continue
-		}
-		merged, err := p.Catalog.Merge(extra)
-		if err != nil {
-			p.Problems = append(p.Problems, diag.Problem{Path: cp, Message: err.Error()})
-			continue
-		}
-		p.Catalog = merged
-	}
+	cat, ps := CatalogFor(p.Config)
+	p.Catalog = cat
+	p.Problems = append(p.Problems, ps...)
 	// Index every recipe of the project so stocks resolve even when the
 	// user names a single file.
 	// Without a phgate.yaml there is no project boundary: only the
@@ -527,18 +511,6 @@ func (p *Project) evaluate(f *File, r *spec.Recipe, chain []string) (*evaluate.R
 }
 
 func (p *Project) evaluateNow(f *File, r *spec.Recipe, chain []string) (*evaluate.Result, diag.Problems) {
-	cat := p.Catalog
-	if r.Catalog != nil {
-		inline, ps := catalog.FromNodeWithBase(r.Catalog, f.Path, cat)
-		if len(ps) > 0 {
-			return nil, ps
-		}
-		merged, err := cat.Merge(inline)
-		if err != nil {
-			return nil, diag.Problems{{Path: f.Path, Line: r.Catalog.Line, Column: r.Catalog.Column, Message: err.Error()}}
-		}
-		cat = merged
-	}
 	lookup := func(stockID string, at spec.Pos) (*evaluate.Result, *diag.Problem) {
 		sf, ok := p.byID[stockID]
 		if !ok {
@@ -563,7 +535,7 @@ func (p *Project) evaluateNow(f *File, r *spec.Recipe, chain []string) (*evaluat
 		}
 		return res, nil
 	}
-	return evaluate.Evaluate(r, cat, lookup)
+	return evaluate.Evaluate(r, p.Catalog, lookup)
 }
 
 // IDs returns the project's recipe ids, sorted.
@@ -585,6 +557,33 @@ func Stocks(r *spec.Recipe) []string {
 		}
 	}
 	return out
+}
+
+// CatalogFor is the built-in catalog plus the catalog files a config
+// names, each file's entries able to refer to those before it. A file
+// that is missing or broken is reported and left out.
+func CatalogFor(c *Config) (*catalog.Catalog, diag.Problems) {
+	cat := catalog.Default()
+	var problems diag.Problems
+	for _, ref := range c.Catalogs {
+		cp := filepath.Join(c.Dir, filepath.FromSlash(ref.Value))
+		if _, err := os.Stat(cp); err != nil {
+			problems = append(problems, diag.Problem{Path: c.Path, Line: ref.Pos.Line, Column: ref.Pos.Column, Message: fmt.Sprintf("catalog %s: %v", ref.Value, unwrapPathErr(err))})
+			continue
+		}
+		extra, ps := ReadCatalog(cp, cat)
+		if len(ps) > 0 {
+			problems = append(problems, ps...)
+			continue
+		}
+		merged, err := cat.Merge(extra)
+		if err != nil {
+			problems = append(problems, diag.Problem{Path: cp, Message: err.Error()})
+			continue
+		}
+		cat = merged
+	}
+	return cat, problems
 }
 
 // ReadCatalog reads and parses a project catalog file whose entries may
