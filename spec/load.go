@@ -341,7 +341,7 @@ func (l *loader) ingredients() {
 			l.add(Pos{1, 1}, "basis is missing: amounts given as mass, moles or volume need a batch size (basis: 1 L, or basis: 1 kg for water mass)")
 		} else if t := l.r.Titrant(); t != nil {
 			// q.s. amounts are reported per litre when there is no basis.
-			l.r.Basis = Basis{Kind: VolumeBasis, Litres: 1, Raw: "1 L (assumed)"}
+			l.r.Basis = Basis{Kind: VolumeBasis, Litres: 1, Raw: "1 L (assumed)", Assumed: true}
 		}
 	}
 }

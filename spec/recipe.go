@@ -53,6 +53,9 @@ type Basis struct {
 	Kilograms float64
 	Raw       string
 	Pos       Pos
+	// Assumed marks the 1 L basis phgate takes for a recipe that gives
+	// none but needs one to report q.s. amounts per batch.
+	Assumed bool
 }
 
 // Temperature is the recipe's nominal temperature and the range it must

@@ -70,6 +70,8 @@ type Recipe struct {
 	Title  string `json:"title,omitempty"`
 	// Basis is the batch size as written ("1 L"), or "" for none.
 	Basis string `json:"basis,omitempty"`
+	// BasisAssumed: the recipe gives no basis; per-batch amounts are per litre.
+	BasisAssumed bool `json:"basis_assumed,omitempty"`
 	// ConcentrationUnit is "mol/L", or "mol/kg" on a water-mass basis.
 	ConcentrationUnit string          `json:"concentration_unit"`
 	TemperatureC      float64         `json:"temperature_c"`
@@ -164,6 +166,7 @@ func Build(res *evaluate.Result, findings []rules.Finding) Recipe {
 	if r.Basis.Raw != "" {
 		out.Basis = r.Basis.Raw
 	}
+	out.BasisAssumed = r.Basis.Assumed
 	if w := r.PH; w != nil {
 		out.PHWindow = &Window{}
 		if w.Min != nil {

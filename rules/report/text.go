@@ -188,7 +188,7 @@ func (s Summary) Tally() []string {
 // assumedBasis notes when per-batch amounts are per litre only because
 // the recipe gives no basis.
 func assumedBasis(r *Recipe) string {
-	if strings.HasSuffix(r.Basis, "(assumed)") {
+	if r.BasisAssumed {
 		return " per litre (the recipe gives no basis)"
 	}
 	return ""
